@@ -1,0 +1,113 @@
+#include "io/ini.hpp"
+
+#include <boost/program_options.hpp>
+#include <sstream>
+
+#include "astro/errors.hpp"
+#include "io/csv.hpp"
+
+namespace siiplan::io {
+
+namespace po = boost::program_options;
+
+namespace {
+std::string trim(const std::string& s) {
+  auto b = s.find_first_not_of(" \t\r");
+  auto e = s.find_last_not_of(" \t\r");
+  return b == std::string::npos ? std::string() : s.substr(b, e - b + 1);
+}
+}  // namespace
+
+IniFile IniFile::read(const std::filesystem::path& path) { return parse(read_file_text(path), path.string()); }
+
+IniFile IniFile::parse(const std::string& text, const std::string& source) {
+  IniFile ini;
+  ini.source_ = source;
+  if (trim(text).empty()) throw InputError(source, "the file is empty", "see the README for the keys it needs");
+  // Line numbers (and sections) from a plain scan; values from Boost.Program_options.
+  std::map<std::string, int> lines;
+  {
+    std::istringstream in(text);
+    std::string line, section;
+    int n = 0;
+    while (std::getline(in, line)) {
+      ++n;
+      std::string t = trim(line);
+      if (t.empty() || t[0] == '#' || t[0] == ';') continue;
+      if (t.front() == '[') {
+        if (t.back() != ']')
+          throw InputError(source + ":" + std::to_string(n), "section header '" + t + "' is not closed",
+                           "write it as [name]");
+        section = trim(t.substr(1, t.size() - 2));
+        ini.sections_.insert(section);
+        continue;
+      }
+      auto eq = t.find('=');
+      if (eq == std::string::npos)
+        throw InputError(source + ":" + std::to_string(n), "line '" + t + "' is not 'key = value'",
+                         "write one 'key = value' per line, or comment the line out with '#'");
+      std::string key = (section.empty() ? "" : section + ".") + trim(t.substr(0, eq));
+      if (lines.count(key))
+        throw InputError(source + ":" + std::to_string(n), "key '" + key + "' is given twice",
+                         "keep one of the two lines");
+      lines[key] = n;
+    }
+  }
+  std::istringstream in(text);
+  po::parsed_options parsed(nullptr);
+  try {
+    po::options_description none;
+    parsed = po::parse_config_file(in, none, /*allow_unregistered=*/true);
+  } catch (const po::error& e) {
+    throw InputError(source, e.what(), "fix the line it names");
+  }
+  for (const auto& opt : parsed.options) {
+    std::string value = opt.value.empty() ? std::string() : trim(opt.value.front());
+    // Strip a trailing comment after the value.
+    for (char mark : {'#', ';'})
+      if (auto p = value.find(std::string(" ") + mark); p != std::string::npos) value = trim(value.substr(0, p));
+    auto it = lines.find(opt.string_key);
+    ini.values_[opt.string_key] = {value, it == lines.end() ? 0 : it->second};
+  }
+  return ini;
+}
+
+bool IniFile::has_section(const std::string& section) const { return sections_.count(section) != 0; }
+
+std::optional<std::string> IniFile::text(const std::string& key) const {
+  auto it = values_.find(key);
+  if (it == values_.end()) return std::nullopt;
+  return it->second.first;
+}
+
+std::string IniFile::where(const std::string& key) const {
+  auto it = values_.find(key);
+  if (it == values_.end() || it->second.second == 0) return source_;
+  return source_ + ":" + std::to_string(it->second.second);
+}
+
+double IniFile::number(const std::string& key, const std::string& hint) const {
+  auto it = values_.find(key);
+  if (it == values_.end()) {
+    auto dot = key.find('.');
+    std::string section = dot == std::string::npos ? "" : key.substr(0, dot);
+    std::string name = dot == std::string::npos ? key : key.substr(dot + 1);
+    throw InputError(source_, "missing key '" + name + "'" + (section.empty() ? "" : " in [" + section + "]"), hint);
+  }
+  if (auto v = parse_number(it->second.first)) return *v;
+  throw InputError(where(key), "'" + key + " = " + it->second.first + "' is not a finite number", hint);
+}
+
+double IniFile::number_or(const std::string& key, double fallback) const {
+  return has(key) ? number(key, "write a plain decimal number") : fallback;
+}
+
+std::vector<std::string> IniFile::unknown_keys(const std::string& section, const std::set<std::string>& known) const {
+  std::vector<std::string> out;
+  std::string prefix = section + ".";
+  for (auto& [key, value] : values_)
+    if (key.rfind(prefix, 0) == 0 && !known.count(key.substr(prefix.size()))) out.push_back(key);
+  return out;
+}
+
+}  // namespace siiplan::io
