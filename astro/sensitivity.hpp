@@ -119,8 +119,8 @@ struct SkyGeometry {
 //            term grows with k, which makes the moonlit sky bluer) and shift the Moon's illuminance by
 //            the solar colour (U-V 0.82, B-V 0.65, V-R 0.36, V-I 0.70; Cousins R, I; from memory) —
 //            an approximation of ours, good to a few tenths of a magnitude.
-//         3) Dark zenith sky, mag/arcsec^2: U 22.28, B 22.64, V 21.61, R 20.87, I 19.71 (ESO Paranal
-//            new-Moon values, Patat 2003, A&A 400, 1183; from memory). Pass dark_zenith to override.
+//         3) Dark zenith sky, mag/arcsec^2: U 22.3, B 22.6, V 21.6, R 20.9, I 19.7 (Paranal, Patat 2003,
+//            A&A 400, 1183, abstract; sensitivity.md §7.1). Pass dark_zenith_mag_arcsec2 to override.
 // Tested in: tests/astro/sensitivity_test.cpp (the V-band scenarios of geometry.md §5.3).
 double sky_brightness_mag_arcsec2(Band band, double k_mag_per_airmass, const SkyGeometry& geometry,
                                   double dark_zenith_mag_arcsec2);
