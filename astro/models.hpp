@@ -33,6 +33,26 @@ enum class ModelKind {
   Ellipse,       // params: diameter (major axis), axis_ratio (minor/major, in (0,1]), major_pa (N through E)
   Binary,        // params: diameter (primary UD), companion_diameter, flux_ratio (F2/F1), separation, companion_pa
 };
+//
+// The models and their parameters (internal units, in this order; x = pi * diameter * |(u,v)|):
+//   ud            diameter_rad                          V = 2 J1(x)/x                          (models.md §1.1)
+//   ld-linear     diameter_rad (LD), limb_u in [0,1]    I(mu) = 1 - u(1-mu)                    (§1.2; Hanbury Brown et al. 1974)
+//   ld-quadratic  diameter_rad (LD), limb_a, limb_b     I(mu) = 1 - a(1-mu) - b(1-mu)^2        (§1.3)
+//                 (a in [-1,2], b in [-1,1], and I(mu) >= 0 for all mu in [0,1])
+//   ld-power      diameter_rad (LD), limb_alpha [0,10]  I(mu) = mu^alpha, V = Lambda_{1+alpha/2}(x) (§1.4; Hestroffer 1997, A&A 327, 199)
+//   gaussian      diameter_rad = FWHM                   V = exp(-x^2/(4 ln 2))                 (§1.5)
+//   ring          diameter_rad (infinitely thin ring)   V = J0(x)                              (§1.6)
+//   ellipse       diameter_rad (MAJOR axis), axis_ratio (minor/major, (0,1]),
+//                 major_pa_rad: position angle of the MAJOR axis, from North through East.
+//                 Note: papers often quote the PA of an oblate star's rotation axis, which is its MINOR
+//                 axis: major_pa = rotation-axis PA + 90 deg.                                   (§1.7)
+//   binary        diameter_rad (primary UD), companion_diameter_rad (UD, >= 0), flux_ratio F2/F1 >= 0,
+//                 separation_rad >= 0, companion_pa_rad: position angle of the COMPANION as seen from the
+//                 primary, from North through East. The companion sits at offset
+//                 (dalpha, ddelta) = separation * (sin pa, cos pa) from the primary (dalpha towards East),
+//                 the primary at the phase centre:
+//                 V = [V1 + f V2 exp(-2 pi i (u dalpha + v ddelta))] / (1 + f)                     (§1.8)
+// Gradients are analytic for every parameter (power law: d/dalpha through dLambda_nu/dnu, astro/bessel.hpp).
 
 // One model parameter: its user-facing name and unit, and its allowed range in internal units.
 struct ParamSpec {
@@ -48,6 +68,10 @@ struct ParamSpec {
 std::string_view model_name(ModelKind kind);
 std::optional<ModelKind> model_from_name(std::string_view name);
 std::span<const ParamSpec> model_params(ModelKind kind);
+// All models, in the order of ModelKind (for help texts and loops in tests).
+std::span<const ModelKind> all_model_kinds();
+// The allowed range of a parameter in user units, e.g. "(0, 1]" or "at least 0" (for error messages).
+std::string param_range_text(const ParamSpec& spec);
 
 class Model {
  public:

@@ -32,15 +32,6 @@ const ParamOption kParamOptions[] = {
     {"companion_pa_deg", "binary: position angle of the companion seen from the primary, degrees from North through East"},
 };
 
-std::string range_text(const astro::ParamSpec& s) {
-  auto user = [&](double v) { return io::format_number(v * s.user_per_internal, 6); };
-  bool lo = std::isfinite(s.lower), hi = std::isfinite(s.upper);
-  if (lo && hi) return std::string(s.lower_open ? "(" : "[") + user(s.lower) + ", " + user(s.upper) + "]";
-  if (lo) return std::string(s.lower_open ? "greater than " : "at least ") + user(s.lower);
-  if (hi) return "at most " + user(s.upper);
-  return "any finite number";
-}
-
 }  // namespace
 
 std::string model_option_name(std::string_view param_name) {
@@ -85,7 +76,7 @@ astro::Model model_from_options(const po::variables_map& vm) {
     bool ok = internal <= s.upper && (s.lower_open ? internal > s.lower : internal >= s.lower);
     if (!ok)
       throw InputError("--" + opt, "value " + vm[opt].as<std::string>() + " is out of range",
-                       "it must be " + range_text(s));
+                       "it must be " + astro::param_range_text(s));
     params.push_back(internal);
   }
   // Joint constraints (e.g. a non-negative limb-darkening profile) are checked by the Model itself.
