@@ -1,5 +1,6 @@
 #include "astro/models.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <limits>
@@ -248,6 +249,12 @@ double Model::vis2_and_gradient(double u_lambda, double v_lambda, std::span<doub
       return r.v * r.v;
     }
   }
+}
+
+double angular_scale_rad(const Model& model) {
+  const auto& p = model.params();
+  if (model.kind() == ModelKind::Binary) return std::max({p[0], p[1], 2.0 * p[3]});
+  return p[0];
 }
 
 }  // namespace siiplan::astro

@@ -99,4 +99,9 @@ class Model {
   std::vector<double> params_;
 };
 
+// The largest angular scale (radians) that sets how fast |V|^2 changes with baseline: the largest of the
+// diameters and, for a binary, twice the separation (its fringe term varies like a disk of that size).
+// Used to choose step sizes in root finders and quadratures.
+double angular_scale_rad(const Model& model);
+
 }  // namespace siiplan::astro
