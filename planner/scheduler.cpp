@@ -265,17 +265,20 @@ double sigma_theta_from_fisher(double f_tt, double f_tc, double f_cc, astro::Zer
   return info > 0 ? 1.0 / std::sqrt(info) : kInf;
 }
 
+double angular_separation_rad(double lon1_rad, double lat1_rad, double lon2_rad, double lat2_rad) {
+  double c1 = std::cos(lat1_rad), c2 = std::cos(lat2_rad), s1 = std::sin(lat1_rad), s2 = std::sin(lat2_rad);
+  double d = lon2_rad - lon1_rad;
+  double x = c2 * std::sin(d), y = c1 * s2 - s1 * c2 * std::cos(d), z = s1 * s2 + c1 * c2 * std::cos(d);
+  return std::atan2(std::hypot(x, y), z);
+}
+
 double overhead_s(const std::vector<TargetSlots>& targets, const SchedulerOptions& options, int from, int to) {
   if (from < 0) return options.setup_s;
   if (from == to) return options.setup_s;
   if (options.fixed_slew_s >= 0) return options.setup_s + options.fixed_slew_s;
   const auto& a = targets[std::size_t(from)];
   const auto& b = targets[std::size_t(to)];
-  // great-circle distance, atan2 form (well conditioned at all angles; geometry.md §5.1)
-  double ca = std::cos(a.dec_rad), cb = std::cos(b.dec_rad), sa = std::sin(a.dec_rad), sb = std::sin(b.dec_rad);
-  double dra = b.ra_rad - a.ra_rad;
-  double x = cb * std::sin(dra), y = ca * sb - sa * cb * std::cos(dra), z = sa * sb + ca * cb * std::cos(dra);
-  double sep = std::atan2(std::hypot(x, y), z);
+  double sep = angular_separation_rad(a.ra_rad, a.dec_rad, b.ra_rad, b.dec_rad);
   return options.setup_s + sep * astro::kRadToDeg / options.slew_deg_per_s;
 }
 

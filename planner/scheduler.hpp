@@ -92,6 +92,10 @@ struct Evaluation {
 // with c0 free (the Schur complement, i.e. (F^-1)_tt; models.md §5.3). +inf without information.
 double sigma_theta_from_fisher(double f_tt, double f_tc, double f_cc, astro::ZeroBaseline zero_baseline);
 
+// Great-circle angle between two directions given as (longitude-like, latitude-like) angles, atan2 form
+// (well conditioned at all angles; geometry.md §5.1, as ERFA's eraSeps).
+double angular_separation_rad(double lon1_rad, double lat1_rad, double lon2_rad, double lat2_rad);
+
 // Slew plus setup time charged when `to` follows `from` (from < 0: the night's first block).
 double overhead_s(const std::vector<TargetSlots>& targets, const SchedulerOptions& options, int from, int to);
 
