@@ -84,8 +84,12 @@ Interval interval_of(const std::function<double(JulianDate)>& altitude_rad, Juli
 }
 
 NightSummary night_summary(const Site& site, const CalendarDate& date, const CrossingSearch& search) {
+  return night_summary(site, night_window(site, date), search);
+}
+
+NightSummary night_summary(const Site& site, const NightWindow& window, const CrossingSearch& search) {
   NightSummary s;
-  s.window = night_window(site, date);
+  s.window = window;
   bool dubious = false;
   auto sun_alt = [&](JulianDate t) {
     Epoch e(site, t);

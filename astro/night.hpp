@@ -81,5 +81,7 @@ struct NightSummary {
   bool dubious_year = false;     // ERFA status +1 anywhere in the computation
 };
 NightSummary night_summary(const Site& site, const CalendarDate& date, const CrossingSearch& search = {});
+// The same for any window (e.g. an explicit --start/--end span).
+NightSummary night_summary(const Site& site, const NightWindow& window, const CrossingSearch& search = {});
 
 }  // namespace siiplan::astro

@@ -3,6 +3,7 @@
 #include <erfa.h>
 
 #include <cmath>
+#include <cstdio>
 #include <map>
 #include <optional>
 #include <set>
@@ -109,6 +110,24 @@ double parse_dec_rad(std::string_view text, const std::string& where) {
   if (std::fabs(rad) > astro::kPi / 2 * (1 + 1e-15))
     throw InputError(where, "Dec '" + trim(text) + "' is beyond +-90 degrees", hint);
   return rad;
+}
+
+std::string format_ra(double ra_rad) {
+  char sign;
+  int hmsf[4];
+  eraA2tf(2, eraAnp(ra_rad), &sign, hmsf);
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%02dh%02dm%02d.%02ds", hmsf[0], hmsf[1], hmsf[2], hmsf[3]);
+  return buf;
+}
+
+std::string format_dec(double dec_rad) {
+  char sign;
+  int dmsf[4];
+  eraA2af(1, dec_rad, &sign, dmsf);
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%c%02dd%02dm%02d.%01ds", sign, dmsf[0], dmsf[1], dmsf[2], dmsf[3]);
+  return buf;
 }
 
 std::vector<astro::Target> parse_catalog(const std::string& text, const std::string& source) {

@@ -34,6 +34,10 @@ double parse_ra_rad(std::string_view text, const std::string& where);
 // Declination from "+-dd:mm:ss.s" / "+-dd mm ss.s" or a plain number of degrees in [-90, 90]. Radians.
 double parse_dec_rad(std::string_view text, const std::string& where);
 
+// Sexagesimal text for people: "05h35m17.30s" and "-05d23m28.0s".
+std::string format_ra(double ra_rad);
+std::string format_dec(double dec_rad);
+
 std::vector<astro::Target> read_catalog(const std::filesystem::path& path);
 std::vector<astro::Target> parse_catalog(const std::string& text, const std::string& source);
 

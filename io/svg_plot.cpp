@@ -174,6 +174,8 @@ std::string Plot::render(int width, int height) const {
   return o.str();
 }
 
+std::string palette_color(std::size_t index) { return kPalette[index % 8]; }
+
 std::string combine_svgs(const std::vector<std::string>& svgs, int cell_width, int cell_height, int columns) {
   int rows = int((svgs.size() + columns - 1) / columns);
   std::ostringstream o;

@@ -45,6 +45,8 @@ struct Plot {
 
 // Several charts side by side / stacked into one SVG document (columns per row).
 std::string combine_svgs(const std::vector<std::string>& svgs, int cell_width, int cell_height, int columns);
+// The colour the plot gives its index-th series without a colour (for series that must share a colour).
+std::string palette_color(std::size_t index);
 // XML text escaping for labels.
 std::string xml_escape(const std::string& text);
 

@@ -1,5 +1,7 @@
 #include "planner/cli/observing_options.hpp"
 
+#include <cmath>
+
 #include "astro/errors.hpp"
 #include "astro/night.hpp"
 #include "astro/units.hpp"
@@ -122,10 +124,19 @@ TimeSpan load_time_span(const po::variables_map& vm, const astro::Site& site) {
 
 std::vector<astro::JulianDate> sample_times(astro::JulianDate start_utc, astro::JulianDate end_utc, double step_s) {
   std::vector<astro::JulianDate> out;
-  double length = astro::seconds_between(start_utc, end_utc);
-  for (long k = 0; k * step_s < length - 1e-3; ++k) out.push_back(astro::add_seconds(start_utc, k * step_s));
-  out.push_back(end_utc);
+  astro::JulianDate day0{start_utc.jd1, 0.0};   // jd1 is a whole day + 0.5 (0h UTC) for our instants
+  double from = astro::seconds_between(day0, start_utc), to = astro::seconds_between(day0, end_utc);
+  for (double k = std::ceil(from / step_s - 1e-9); k * step_s <= to + 1e-6; ++k)
+    out.push_back(astro::add_seconds(day0, k * step_s));
+  if (out.empty()) out.push_back(start_utc);
   return out;
+}
+
+std::string describe_no_dark(const astro::NightSummary& night) {
+  std::string low = io::format_number(night.sun_min_alt_rad * astro::kRadToDeg, 3);
+  if (night.sun_down.kind == astro::Interval::Kind::None)
+    return "the Sun does not set (midnight sun; its lowest altitude is " + low + " deg)";
+  return "the Sun never gets below -18 deg (twilight all night; its lowest altitude is " + low + " deg)";
 }
 
 void warn_dubious_year(bool dubious) {

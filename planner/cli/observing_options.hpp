@@ -13,6 +13,7 @@
 #include <string>
 #include <vector>
 
+#include "astro/night.hpp"
 #include "astro/site.hpp"
 #include "astro/time.hpp"
 #include "planner/cli/command.hpp"
@@ -51,8 +52,13 @@ void add_time_options(po::options_description& desc, double default_step_min);
 // the command then narrows (e.g. to sunset..sunrise); with --start/--end it is exactly that span.
 // InputError naming the option for a malformed date, end <= start, a span over 31 days, or a step <= 0.
 TimeSpan load_time_span(const po::variables_map& vm, const astro::Site& site);
-// start, start + step, ..., and end itself as the last sample.
+// The instants on a regular grid of `step_s` counted from 0h UTC (so steps fall on round times) that lie
+// in [start, end]; start itself when no grid instant does.
 std::vector<astro::JulianDate> sample_times(astro::JulianDate start_utc, astro::JulianDate end_utc, double step_s);
+
+// Why a night has no dark time, for messages: "the Sun stays above -18 deg (lowest -12.4 deg; midnight
+// sun)" and the like.
+std::string describe_no_dark(const astro::NightSummary& night);
 
 // ERFA's "dubious year" status (dates beyond its leap-second table): prints the warning the first time
 // it is called with true, and never again in this process.
