@@ -90,6 +90,12 @@ struct Vis2Data {
   OiArray array;
   std::vector<OiInstrument> instruments;
   std::vector<Vis2Record> records;
+  // The values are raw normalised correlations c(B) = c(0)|V|^2 rather than calibrated |V|^2 (CSV read
+  // with --raw). OIFITS has no slot for them (models.md §6.5): write_oifits refuses such data.
+  bool raw_correlation = false;
+  // False when the source gave baseline lengths without position angles (CSV baseline_m without pa_deg):
+  // then u_m = 0 and v_m = the length, fine for circular models only.
+  bool position_angles_known = true;
 
   const OiTarget* find_target(int id) const;
   // Number of (record, channel) values not flagged.
