@@ -49,33 +49,4 @@ std::string_view resolve_criterion_text() {
          "model's first null it is reported as '2nd lobe'";
 }
 
-double first_null_lambda(const Model& model, double pa_rad) {
-  const double theta = model.diameter_rad();
-  const double su = std::sin(pa_rad), sv = std::cos(pa_rad);   // unit vector towards PA (u East, v North)
-  auto v2 = [&](double r) { return model.vis2(r * su, r * sv); };
-  const double step = 0.01 / theta, r_max = 6.0 / theta;
-  double r_prev = 0, f_prev = 1;
-  double r = step, f = v2(r);
-  for (double r_next = 2 * step; r_next <= r_max; r_next += step) {
-    double f_next = v2(r_next);
-    if (f <= f_prev && f <= f_next && f < 0.05) {
-      // Golden-section refinement of the minimum on [r_prev, r_next].
-      double a = r_prev, b = r_next;
-      const double g = 0.5 * (std::sqrt(5.0) - 1);
-      double c = b - g * (b - a), d = a + g * (b - a);
-      double fc = v2(c), fd = v2(d);
-      for (int i = 0; i < 60 && (b - a) > 1e-12 * b; ++i) {
-        if (fc < fd) {
-          b = d, d = c, fd = fc, c = b - g * (b - a), fc = v2(c);
-        } else {
-          a = c, c = d, fc = fd, d = a + g * (b - a), fd = v2(d);
-        }
-      }
-      return 0.5 * (a + b);
-    }
-    r_prev = r, f_prev = f, r = r_next, f = f_next;
-  }
-  return kInf;
-}
-
 }  // namespace siiplan::astro

@@ -6,14 +6,14 @@
 //     (1) the drop of the squared visibility is significant:   1 - |V|^2 > 3 sigma(|V|^2), and
 //     (2) the lobe has not collapsed into noise:               |V|^2     > 3 sigma(|V|^2).
 //   (1) alone would also be met far beyond the first null, where |V|^2 ~ 0 says only "larger than some
-//   size". A baseline beyond the first null of the model along its direction is flagged; if (1) and (2)
-//   hold there it measures a secondary lobe (it resolves, with the ambiguity of which lobe).
+//   size". A baseline beyond the first null of the model along its direction (first_null_baseline_m,
+//   astro/coherence.hpp) is flagged; if (1) and (2) hold there it measures a secondary lobe (it
+//   resolves, with the ambiguity of which lobe).
 // Both tests scale as sqrt(T), so the time to satisfy them is T (3 sigma/min(drop, |V|^2))^2.
 #pragma once
 
 #include <string_view>
 
-#include "astro/models.hpp"
 
 namespace siiplan::astro {
 
@@ -45,13 +45,5 @@ BaselineAssessment assess_baseline(double vis2, double sigma_vis2, double t_s, b
 std::string_view verdict_text(Verdict verdict);
 // The criterion in one sentence, for help texts and report footers.
 std::string_view resolve_criterion_text();
-
-// Spatial frequency (wavelengths) of the first null of |V|^2 along position angle pa_rad (east of
-// north), found by scanning |V|^2 outward in steps of 0.01/theta up to 6/theta and refining the first
-// local minimum below 0.05 by golden-section search. +inf when there is none (Gaussian; binaries
-// whose minima stay above 0.05). For a uniform disk it is 1.2197/theta (first zero of J1,
-// 3.8317/pi; models.md §1.1). Cost: a few hundred model evaluations: call it once per target and
-// direction, not per slot.
-double first_null_lambda(const Model& model, double pa_rad);
 
 }  // namespace siiplan::astro

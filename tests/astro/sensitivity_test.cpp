@@ -8,7 +8,6 @@
 #include <random>
 #include <vector>
 
-#include "astro/models.hpp"
 #include "astro/resolve.hpp"
 #include "astro/units.hpp"
 #include "support/close.hpp"
@@ -335,11 +334,6 @@ TEST_CASE("diameter from Teff and V via the bolometric flux") {
 }
 
 TEST_CASE("resolve criterion") {
-  // First null of a uniform disk: first zero of J1, j_1,1 = 3.831705970 (Abramowitz & Stegun Table 9.5):
-  // |b|/lambda = 3.831705970/(pi theta).
-  double theta = 0.5 * kMasToRad;
-  Model ud(ModelKind::UniformDisk, {theta});
-  check_close(first_null_lambda(ud, 0.3), 3.831705970 / (kPi * theta), 1e-7, 0, "UD first null");
   // Criterion at its edges (sigma = 0.01 in 1 h).
   auto a = assess_baseline(0.5, 0.01, 3600, false);
   CHECK(a.verdict == Verdict::Resolves);
