@@ -39,6 +39,10 @@ Horizontal horizontal_from_hadec(double ha_rad, double dec_rad, double lat_rad) 
   return h;
 }
 
+double separation_rad(double lon1_rad, double lat1_rad, double lon2_rad, double lat2_rad) {
+  return eraSeps(lon1_rad, lat1_rad, lon2_rad, lat2_rad);
+}
+
 double airmass_kasten_young(double alt_rad) {
   if (alt_rad < 0) return std::numeric_limits<double>::infinity();
   double h_deg = alt_rad * kRadToDeg;
@@ -148,12 +152,12 @@ double Epoch::moon_illuminated_fraction() const {
 
 double Epoch::moon_separation_rad(const SkyPosition& position) const {
   Apparent s = star(position), m = moon();
-  return eraSeps(s.az_rad, s.alt_rad, m.az_rad, m.alt_rad);
+  return separation_rad(s.az_rad, s.alt_rad, m.az_rad, m.alt_rad);
 }
 
 double Epoch::sun_separation_rad(const SkyPosition& position) const {
   Apparent s = star(position), m = sun();
-  return eraSeps(s.az_rad, s.alt_rad, m.az_rad, m.alt_rad);
+  return separation_rad(s.az_rad, s.alt_rad, m.az_rad, m.alt_rad);
 }
 
 double Uvw::projected_m() const { return std::hypot(u_m, v_m); }

@@ -37,6 +37,11 @@ struct Horizontal {
 };
 Horizontal horizontal_from_hadec(double ha_rad, double dec_rad, double lat_rad);
 
+// Angular distance between two directions given as (longitude-like, latitude-like) angle pairs: (RA, Dec)
+// or (azimuth, altitude). ERFA eraSeps, atan2(|a x b|, a.b), accurate at all separations (Meeus ch. 17
+// gives the cosine formula, which loses precision below 1').
+double separation_rad(double lon1_rad, double lat1_rad, double lon2_rad, double lat2_rad);
+
 // Relative air mass for a geometric (true, unrefracted) altitude.
 // Given:    alt_rad   altitude of the body's centre (radians)
 // Returns:  X = 1 / [sin h + 0.50572 (h + 6.07995 deg)^-1.6364] with h in degrees; 0.9997 at the zenith,

@@ -1,4 +1,5 @@
 // siiplan sky: the night at a site: Sun and Moon events, twilight, dark time, and altitudes through the night.
+#include <algorithm>
 #include <cmath>
 #include <ostream>
 #include <sstream>
@@ -38,25 +39,27 @@ std::string utc_offset_text(double h) {
   return o.str();
 }
 
-// The begin/end lines of one "Sun below threshold" interval.
-void describe_interval(std::ostream& out, const Site& site, const Interval& iv, const std::string& begins,
-                       const std::string& ends, const std::string& never, const std::string& always) {
-  auto line = [&](const std::string& what, JulianDate t, bool edge) {
-    out << "  " << what << std::string(what.size() < 34 ? 34 - what.size() : 1, ' ');
-    if (edge)
-      out << "(not in the window: it is already so at the window's edge)\n";
-    else
-      out << format_utc(t) << "  (" << local_hhmm(site, t) << " local)\n";
-  };
-  switch (iv.kind) {
-    case Interval::Kind::None: out << "  " << never << '\n'; break;
-    case Interval::Kind::Whole: out << "  " << always << '\n'; break;
-    case Interval::Kind::Part:
-      line(begins, iv.begin, iv.begin_is_edge);
-      line(ends, iv.end, iv.end_is_edge);
-      break;
+// Events in time order, and statements for thresholds the Sun never (or always) crosses.
+struct Events {
+  std::vector<std::pair<JulianDate, std::string>> timed;
+  std::vector<std::string> statements;
+  void add_interval(const Interval& iv, const std::string& begins, const std::string& ends, const std::string& never,
+                    const std::string& always) {
+    if (iv.kind == Interval::Kind::None) statements.push_back(never);
+    if (iv.kind == Interval::Kind::Whole) statements.push_back(always);
+    if (iv.kind != Interval::Kind::Part) return;
+    if (!iv.begin_is_edge) timed.push_back({iv.begin, begins});
+    if (!iv.end_is_edge) timed.push_back({iv.end, ends});
   }
-}
+  void write(std::ostream& out, const Site& site) {
+    std::stable_sort(timed.begin(), timed.end(),
+                     [](auto& a, auto& b) { return seconds_between(b.first, a.first) < 0; });
+    for (auto& [t, what] : timed)
+      out << "  " << what << std::string(what.size() < 34 ? 34 - what.size() : 1, ' ') << format_utc(t) << "  ("
+          << local_hhmm(site, t) << " local)\n";
+    for (auto& s : statements) out << "  " << s << '\n';
+  }
+};
 
 int run_sky(const po::variables_map& vm) {
   Site site = load_site(vm);
@@ -113,32 +116,28 @@ int run_sky(const po::variables_map& vm) {
         << io::format_number(site.lon_east_rad * kRadToDeg, 8) << " deg east, " << io::format_number(site.height_m, 6)
         << " m), " << span.label << "\nWindow " << format_utc(night.window.start_utc) << " to "
         << format_utc(night.window.end_utc) << "; times in UTC, local = " << utc_offset_text(site.utc_offset_h) << "\n\n";
-    describe_interval(out, site, night.sun_down, "sunset", "sunrise",
-                      "The Sun does not set (midnight sun; lowest altitude " +
-                          io::format_number(night.sun_min_alt_rad * kRadToDeg, 3) + " deg).",
-                      "The Sun does not rise (polar night; highest altitude " +
-                          io::format_number(night.sun_max_alt_rad * kRadToDeg, 3) + " deg).");
-    describe_interval(out, site, night.civil, "civil twilight ends (-6 deg)", "civil twilight begins",
-                      "The Sun never gets below -6 deg.", "The Sun stays below -6 deg all through the window.");
-    describe_interval(out, site, night.nautical, "nautical twilight ends (-12 deg)", "nautical twilight begins",
-                      "The Sun never gets below -12 deg.", "The Sun stays below -12 deg all through the window.");
-    describe_interval(out, site, night.astronomical, "dark time begins (-18 deg)", "dark time ends",
-                      "No dark time: " + describe_no_dark(night) + ".",
-                      "Dark all through the window (the Sun stays below -18 deg).");
+    Events events;
+    events.add_interval(night.sun_down, "sunset", "sunrise",
+                        "The Sun does not set (midnight sun; lowest altitude " +
+                            io::format_number(night.sun_min_alt_rad * kRadToDeg, 3) + " deg).",
+                        "The Sun does not rise (polar night; highest altitude " +
+                            io::format_number(night.sun_max_alt_rad * kRadToDeg, 3) + " deg).");
+    events.add_interval(night.civil, "civil twilight ends (-6 deg)", "civil twilight begins",
+                        "The Sun never gets below -6 deg.", "The Sun stays below -6 deg all through the window.");
+    events.add_interval(night.nautical, "nautical twilight ends (-12 deg)", "nautical twilight begins",
+                        "The Sun never gets below -12 deg.", "The Sun stays below -12 deg all through the window.");
+    events.add_interval(night.astronomical, "dark time begins (-18 deg)", "dark time ends (-18 deg)",
+                        "No dark time: " + describe_no_dark(night) + ".",
+                        "Dark all through the window (the Sun stays below -18 deg).");
+    for (const auto& c : night.moon) events.timed.push_back({c.utc, c.rising ? "moonrise" : "moonset"});
+    if (night.moon.empty())
+      events.statements.push_back(Epoch(site, night.middle_utc).moon().alt_rad > kMoonriseAltitude_rad
+                                      ? "The Moon is up all through the window."
+                                      : "The Moon stays below the horizon all through the window.");
+    events.write(out, site);
     if (night.astronomical.kind != Interval::Kind::None)
       out << "  dark time                         "
           << io::format_number(seconds_between(night.astronomical.begin, night.astronomical.end) / 3600, 3) << " h\n";
-    if (night.moon.empty()) {
-      Epoch mid(site, night.middle_utc);
-      out << "  " << (mid.moon().alt_rad > kMoonriseAltitude_rad ? "The Moon is up all through the window."
-                                                                  : "The Moon stays below the horizon all through the window.")
-          << '\n';
-    }
-    for (const auto& c : night.moon) {
-      std::string what = c.rising ? "moonrise" : "moonset";
-      out << "  " << what << std::string(34 - what.size(), ' ') << format_utc(c.utc) << "  (" << local_hhmm(site, c.utc)
-          << " local)\n";
-    }
     out << "  Moon illuminated                  " << io::format_number(100 * night.moon_illuminated_fraction, 3)
         << " % (at " << format_utc(night.middle_utc) << ")\n\n";
     table.write(out, io::Format::Table);
