@@ -24,8 +24,6 @@ constexpr std::array<BandZeroPoint, kBandCount> kBessell1979{{
     {790e-9, 0.19, 2550},
 }};
 constexpr std::array<std::string_view, kBandCount> kBandNames{"U", "B", "V", "R", "I"};
-// Patat (2003), A&A 400, 1183, Table A.1 (Paranal), rounded as in geometry.md §4.2.
-constexpr std::array<double, kBandCount> kGoodSiteExtinction{0.45, 0.22, 0.12, 0.08, 0.05};
 // Patat (2003), A&A 400, 1183, abstract: Paranal dark zenith sky (sensitivity.md §7.1).
 constexpr std::array<double, kBandCount> kDarkZenithSky{22.3, 22.6, 21.6, 20.9, 19.7};
 // Solar colours m_band - V (U-B 0.17 + B-V 0.65; B-V 0.65; V-R_C 0.36; V-I_C 0.70), from memory.
@@ -62,7 +60,7 @@ bool band_from_name(std::string_view name, Band& band) {
   return false;
 }
 
-double default_extinction(Band band) { return kGoodSiteExtinction[static_cast<int>(band)]; }
+double default_extinction(Band band) { return Site{}.extinction_mag_per_airmass[static_cast<int>(band)]; }
 
 double photon_flux_density(double magnitude, Band band, double lambda_m, double teff_k) {
   const BandZeroPoint& zp = bessell1979(band);

@@ -27,8 +27,9 @@ struct Site {
   double dut1_s = 0;           // UT1 - UTC
   double utc_offset_h = 0;     // local civil time - UTC, for display and for "the night of DATE"
   double min_altitude_rad = 20 * 3.14159265358979323846 / 180;  // horizon / telescope limit
-  // Atmospheric extinction (mag per airmass) per band U,B,V,R,I.
-  std::array<double, kBandCount> extinction_mag_per_airmass{0.55, 0.25, 0.15, 0.10, 0.07};
+  // Atmospheric extinction (mag per airmass) per band U,B,V,R,I. Default: a good dry site, Patat (2003),
+  // A&A 400, 1183, Table A.1 (Paranal), rounded as recommended in geometry.md §4.2.
+  std::array<double, kBandCount> extinction_mag_per_airmass{0.45, 0.22, 0.12, 0.08, 0.05};
 };
 
 struct Telescope {
