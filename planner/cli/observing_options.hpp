@@ -30,6 +30,7 @@ std::vector<astro::Telescope> load_array(const po::variables_map& vm, const astr
 // --- target ------------------------------------------------------------------------------------------
 // --ra/--dec accept degrees ("83.63") or sexagesimal ("05:35:17.3" hours for RA, "-05:23:28" degrees for
 // Dec); ICRS, epoch J2000.0.
+// Also declares --catalog unless desc already has it (call add_catalog_option first, or not at all).
 void add_target_options(po::options_description& desc);
 // The one target named by --ra/--dec or --target/--catalog; InputError when neither or both are given.
 astro::Target load_target(const po::variables_map& vm);
