@@ -102,14 +102,16 @@ AmplitudeFit fit_amplitude(std::span<const double> c, std::span<const double> we
   fit.offpeak_bins = n_off;
   if (n_off < 3) return fit;
   fit.baseline = swc / sw;
+  // The correlation is normalised by the accidentals, so its level far from the peak is 0 by
+  // construction: the scatter is taken about 0 and nothing is subtracted (one free parameter only).
   double ss = 0;
   for (std::size_t k = 0; k < c.size(); ++k)
-    if (weight[k] > 0 && shape[k] <= offpeak_fraction * hmax) ss += weight[k] * (c[k] - fit.baseline) * (c[k] - fit.baseline);
-  fit.scatter = std::sqrt(ss / (n_off - 1));
+    if (weight[k] > 0 && shape[k] <= offpeak_fraction * hmax) ss += weight[k] * c[k] * c[k];
+  fit.scatter = std::sqrt(ss / n_off);
   // One-parameter weighted least squares with the known shape.
   double num = 0, den = 0;
   for (std::size_t k = 0; k < c.size(); ++k) {
-    num += weight[k] * (c[k] - fit.baseline) * shape[k];
+    num += weight[k] * c[k] * shape[k];
     den += weight[k] * shape[k] * shape[k];
   }
   fit.area_s = num / den;
@@ -118,7 +120,7 @@ AmplitudeFit fit_amplitude(std::span<const double> c, std::span<const double> we
   int n_peak = 0;
   for (std::size_t k = 0; k < c.size(); ++k)
     if (weight[k] > 0 && shape[k] >= peak_fraction * hmax) {
-      double r = c[k] - fit.baseline - fit.area_s * shape[k];
+      double r = c[k] - fit.area_s * shape[k];
       chi2 += weight[k] * r * r;
       ++n_peak;
     }

@@ -146,7 +146,7 @@ void draw_correlation(std::mt19937_64& rng, const Instrument& inst, double rate_
 struct AmplitudeFit {
   double area_s = NAN;         // fitted peak area
   double area_err_s = NAN;     // its 1-sigma error, from the off-peak scatter
-  double baseline = NAN;       // level of c far from the peak (subtracted before the fit)
+  double baseline = NAN;       // mean level of c far from the peak (a diagnostic; 0 when normalised)
   double scatter = NAN;        // rms of c per unit weight in the off-peak bins
   double peak_chi2 = NAN;      // sum over peak bins of weighted squared residuals / scatter^2
   int peak_bins = 0, offpeak_bins = 0;
@@ -155,11 +155,12 @@ struct AmplitudeFit {
 
 // One-parameter weighted least-squares fit of the peak area with a known shape (the optimal estimator
 // when shape and position are known; Guerin et al. 2025, arXiv:2503.22446, sensitivity.md §2.2a):
-//   a = sum_k W_k (c_k - b) h_k / sum_k W_k h_k^2,   err(a) = s / sqrt(sum_k W_k h_k^2)
+//   a = sum_k W_k c_k h_k / sum_k W_k h_k^2,   err(a) = s / sqrt(sum_k W_k h_k^2)
 // where h is the unit-area response (1/s), W_k the relative weight of bin k (0 = masked; the variance of
-// c_k is s^2/W_k), b the weighted mean of c over the off-peak bins and s^2 = sum_off W_k (c_k - b)^2 /
-// (n_off - 1) the off-peak scatter. Peak bins are those where h_k >= peak_fraction * max h; off-peak
-// bins those with h_k <= offpeak_fraction * max h. Needs >= 3 off-peak bins (else area = NaN).
+// c_k is s^2/W_k) and s^2 = sum_off W_k c_k^2 / n_off the off-peak scatter. c is normalised by the
+// accidentals (its level is 0 away from the peak), so no baseline is fitted: one parameter only.
+// Peak bins are those where h_k >= peak_fraction * max h; off-peak bins those with
+// h_k <= offpeak_fraction * max h. Needs >= 3 off-peak bins (else area = NaN).
 AmplitudeFit fit_amplitude(std::span<const double> c, std::span<const double> weight, std::span<const double> shape,
                            double peak_fraction = 1e-3, double offpeak_fraction = 1e-6);
 

@@ -103,7 +103,7 @@ CorrelationSet simulate_correlations(const Site& site, const Instrument& instrum
     m.zero_baseline_err_s = options.zero_baseline_error >= 0 ? options.zero_baseline_error * zero_baseline_true : NAN;
     run.frame_s = options.frame_s;
 
-    const long n_frames = long(std::floor((spec.end_mjd - spec.start_mjd) * kSecondsPerDay / options.frame_s + 1e-9));
+    const long n_frames = long(std::floor((spec.end_mjd - spec.start_mjd) * kSecondsPerDay / options.frame_s + 1e-6));
     if (n_frames <= 0) continue;
     std::vector<double> mid(static_cast<std::size_t>(n_frames));
     run.frame_start_mjd.resize(std::size_t(n_frames));

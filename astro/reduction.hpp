@@ -11,7 +11,8 @@
 //      of its predicted geometric delay w/c (geometry module, frame mid-time); the sub-bin remainder
 //      goes into the fitted response (ResponseMixture). A residual fixed offset per run is searched by
 //      scanning the matched-filter SNR over +-offset_search_s in the stack of all frames, and applied
-//      when it is significant (SNR >= offset_snr and |offset| > 3 sigma of its position).
+//      when it is significant (SNR >= offset_snr, SNR above that at the predicted position by >= 4,
+//      and |offset| > 5 sigma of its position).
 //   4. Spurious structures: a second significant peak (SNR >= spurious_snr) at a fixed instrumental
 //      delay more than 3 FWHM from the star's delays is reported and its bins masked in every frame.
 //      Per chunk, a chi^2 of the peak-region residuals far above its expectation flags the chunk.
