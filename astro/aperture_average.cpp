@@ -43,7 +43,7 @@ double aperture_averaged_vis2(const Model& model, double u_m, double v_m, double
   // Panels in s: split at the kink |R1 - R2|, each piece into panels of ~1 radian of phase.
   const double knots[3] = {0.0, std::fabs(r1 - r2), r1 + r2};
   const GaussRule g = gauss_legendre(16);
-  double evaluations = 0, sum = 0;
+  double evaluations = 0, sum = 0, norm = 0;
   for (int piece = 0; piece < 2; ++piece) {
     const double a = knots[piece], b = knots[piece + 1];
     if (b <= a) continue;
@@ -70,14 +70,18 @@ double aperture_averaged_vis2(const Model& model, double u_m, double v_m, double
           }
           ring = acc * kTwoPi / n_phi;
         }
-        sum += g.w[i] * 0.5 * h * s * kernel(s) * ring;
+        const double w = g.w[i] * 0.5 * h * s * kernel(s);
+        sum += w * ring;
+        norm += w * kTwoPi;   // ∫ K d^2s = 1 exactly; dividing by its quadrature cancels the rule's error at
+                              // the (R1+R2-s)^(3/2) end point to first order
+
       }
       if (evaluations > kMaxEvaluations)
         throw RuntimeFailure("aperture averaging", "the mirrors resolve the source too strongly for the quadrature",
                              "the average is then about coherence area / mirror area; use smaller mirrors");
     }
   }
-  return sum;
+  return sum / norm;
 }
 
 double aperture_loss_first_order(double theta_rad, double lambda_m, double d1_m, double d2_m) {

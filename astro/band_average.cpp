@@ -41,7 +41,8 @@ LambdaRange band_of(const Filter& f) {
 template <class G>
 void average(const Model& model, double u_m, double v_m, const LambdaRange& b, std::size_t n, G&& g, std::vector<double>& out) {
   const double phase_span = kPi * angular_scale_rad(model) * std::hypot(u_m, v_m) * (1.0 / b.lo - 1.0 / b.hi);
-  const int panels = 1 + int(std::min(phase_span, 1e5));
+  // At least 8 panels (one per 2 sigma) under a Gaussian weight; 16-point rules on each.
+  const int panels = std::max(b.sigma > 0 ? 8 : 1, 1 + int(std::min(phase_span, 1e5)));
   const GaussRule rule = gauss_legendre(16);
   std::vector<double> val(n);
   out.assign(n, 0.0);

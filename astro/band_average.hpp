@@ -16,7 +16,7 @@
 //
 // Quadrature: Gauss-Legendre, 16 points per panel, panels so that each covers at most ~1 radian of change
 // in the model's phase pi*scale*|b|/lambda (scale = angular_scale_rad); the Gaussian weight is integrated
-// over lambda0 +- 8 sigma (neglected tails < 1e-14). Deterministic, ~1e-12 relative.
+// over lambda0 +- 8 sigma (neglected tails < 1e-14) in at least 8 panels. Deterministic, ~1e-12 relative.
 // Tested in: tests/astro/band_average_test.cpp
 #pragma once
 

@@ -70,7 +70,7 @@ double first_null_baseline_m(const Model& model, double lambda_m, double baselin
     auto f = [&](double b_m) { return model.visibility(b_m * su, b_m * sv).real(); };
     double prev = 0;
     for (double b = step; b <= b_max; b += step) {
-      if (f(b) <= 0) return bisect(f, prev, b);
+      if (f(b) < 0) return bisect(f, prev, b);   // < 0: a Gaussian's V underflows to +0, not a null
       prev = b;
     }
     return kInf;

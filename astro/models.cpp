@@ -29,12 +29,12 @@ constexpr ParamSpec kFluxRatio{"flux_ratio", 1.0, 0.0, kInf, false};
 constexpr ParamSpec kSeparation{"separation_mas", kRadToMas, 0.0, kInf, false};
 constexpr ParamSpec kCompanionPa{"companion_pa_deg", kRadToDeg, -kInf, kInf, false};
 
-const ParamSpec kUdParams[] = {kDiameter};
-const ParamSpec kLinearParams[] = {kDiameter, kLimbU};
-const ParamSpec kQuadraticParams[] = {kDiameter, kLimbA, kLimbB};
-const ParamSpec kPowerParams[] = {kDiameter, kLimbAlpha};
-const ParamSpec kEllipseParams[] = {kDiameter, kAxisRatio, kMajorPa};
-const ParamSpec kBinaryParams[] = {kDiameter, kCompanionDiameter, kFluxRatio, kSeparation, kCompanionPa};
+constexpr ParamSpec kUdParams[] = {kDiameter};
+constexpr ParamSpec kLinearParams[] = {kDiameter, kLimbU};
+constexpr ParamSpec kQuadraticParams[] = {kDiameter, kLimbA, kLimbB};
+constexpr ParamSpec kPowerParams[] = {kDiameter, kLimbAlpha};
+constexpr ParamSpec kEllipseParams[] = {kDiameter, kAxisRatio, kMajorPa};
+constexpr ParamSpec kBinaryParams[] = {kDiameter, kCompanionDiameter, kFluxRatio, kSeparation, kCompanionPa};
 
 struct KindInfo {
   ModelKind kind;
@@ -42,7 +42,7 @@ struct KindInfo {
   std::span<const ParamSpec> params;
 };
 
-const KindInfo kKinds[] = {
+constexpr KindInfo kKinds[] = {
     {ModelKind::UniformDisk, "ud", kUdParams},
     {ModelKind::LinearLD, "ld-linear", kLinearParams},
     {ModelKind::QuadraticLD, "ld-quadratic", kQuadraticParams},
@@ -53,7 +53,7 @@ const KindInfo kKinds[] = {
     {ModelKind::Binary, "binary", kBinaryParams},
 };
 
-const ModelKind kAllKinds[] = {ModelKind::UniformDisk, ModelKind::LinearLD, ModelKind::QuadraticLD, ModelKind::PowerLD,
+constexpr ModelKind kAllKinds[] = {ModelKind::UniformDisk, ModelKind::LinearLD, ModelKind::QuadraticLD, ModelKind::PowerLD,
                                ModelKind::Gaussian,    ModelKind::Ring,     ModelKind::Ellipse,     ModelKind::Binary};
 
 const KindInfo& info(ModelKind kind) {
