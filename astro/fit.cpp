@@ -1,6 +1,7 @@
 #include "astro/fit.hpp"
 
 #include <algorithm>
+#include <cstdio>
 #include <limits>
 #include <numeric>
 #include <random>
@@ -172,6 +173,12 @@ struct LmOutcome {
   int iterations = 0;
 };
 
+std::string short_number(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3g", v);
+  return buf;
+}
+
 // The Gauss-Newton decrement g^T A^-1 g: the chi^2 reduction a full Gauss-Newton step predicts.
 double gn_decrement(const Eigen::MatrixXd& a, const Eigen::VectorXd& g) {
   Eigen::MatrixXd m = a;
@@ -211,8 +218,7 @@ LmOutcome levenberg_marquardt(const Problem& prob, std::vector<double> full, con
     Eigen::VectorXd g = j.transpose() * r;
     if (gn_decrement(a, g) <= opt.chi2_rel_tol * tol_chi2(chi2)) {
       out.status = FitStatus::Converged;
-      out.why = "the predicted chi-squared reduction fell below " + std::to_string(opt.chi2_rel_tol).substr(0, 8) +
-                " relative";
+      out.why = "the predicted chi-squared reduction fell below " + short_number(opt.chi2_rel_tol) + " relative";
       out.iterations = it;
       break;
     }
@@ -247,7 +253,7 @@ LmOutcome levenberg_marquardt(const Problem& prob, std::vector<double> full, con
         lambda = std::max(lambda / 10, 1e-12);
         if (small_step && lambda <= 1e-2) {
           out.status = FitStatus::Converged;
-          out.why = "the parameter steps fell below " + std::to_string(opt.step_rel_tol).substr(0, 8) + " relative";
+          out.why = "the parameter steps fell below " + short_number(opt.step_rel_tol) + " relative";
           out.iterations = it + 1;
           stop = true;
         }

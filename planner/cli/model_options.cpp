@@ -48,7 +48,7 @@ void add_model_options(po::options_description& desc) {
     desc.add_options()(model_option_name(p.param).c_str(), po::value<std::string>(), p.help);
 }
 
-astro::Model model_from_options(const po::variables_map& vm) {
+ModelChoice model_choice_from_options(const po::variables_map& vm) {
   std::string name = vm.count("model") ? vm["model"].as<std::string>() : std::string("ud");
   auto kind = astro::model_from_name(name);
   if (!kind) throw InputError("--model", "unknown model '" + name + "'", std::string("choose ") + kModelList);
@@ -66,21 +66,37 @@ astro::Model model_from_options(const po::variables_map& vm) {
                        "remove it or choose the model that uses it (see 'siiplan help curve')");
   }
 
-  std::string needed;
-  for (const auto& s : specs) needed += (needed.empty() ? "--" : ", --") + model_option_name(s.name);
-  std::vector<double> params;
+  ModelChoice choice{*kind, {}};
   for (const auto& s : specs) {
     std::string opt = model_option_name(s.name);
-    double user = number_option(vm, opt, "model '" + name + "' needs " + needed);
-    double internal = user / s.user_per_internal;
+    if (!vm.count(opt)) {
+      choice.params.push_back(std::nullopt);
+      continue;
+    }
+    double internal = number_option(vm, opt, "") / s.user_per_internal;
     bool ok = internal <= s.upper && (s.lower_open ? internal > s.lower : internal >= s.lower);
     if (!ok)
       throw InputError("--" + opt, "value " + vm[opt].as<std::string>() + " is out of range",
                        "it must be " + astro::param_range_text(s));
-    params.push_back(internal);
+    choice.params.push_back(internal);
+  }
+  return choice;
+}
+
+astro::Model model_from_options(const po::variables_map& vm) {
+  ModelChoice choice = model_choice_from_options(vm);
+  auto specs = astro::model_params(choice.kind);
+  std::string needed;
+  for (const auto& s : specs) needed += (needed.empty() ? "--" : ", --") + model_option_name(s.name);
+  std::vector<double> params;
+  for (std::size_t k = 0; k < specs.size(); ++k) {
+    if (!choice.params[k])
+      throw InputError("--" + model_option_name(specs[k].name), "this option is required",
+                       "model '" + std::string(astro::model_name(choice.kind)) + "' needs " + needed);
+    params.push_back(*choice.params[k]);
   }
   // Joint constraints (e.g. a non-negative limb-darkening profile) are checked by the Model itself.
-  return astro::Model(*kind, std::move(params));
+  return astro::Model(choice.kind, std::move(params));
 }
 
 std::string describe_model(const astro::Model& model) {

@@ -18,6 +18,9 @@
 
 #include <boost/program_options.hpp>
 
+#include <optional>
+#include <vector>
+
 #include "astro/models.hpp"
 
 namespace siiplan::cli {
@@ -32,6 +35,15 @@ void add_model_options(po::options_description& desc);
 // outside its range (e.g. --axis-ratio outside (0,1], --diameter-mas <= 0), or a parameter given that
 // the model does not use.
 astro::Model model_from_options(const po::variables_map& vm);
+
+// For commands where model parameters are optional (fit: start or fixed values): the model named by
+// --model and, per parameter of that model (astro::model_params order), the value given in internal
+// units or nullopt. Same checks and messages as model_from_options, except that parameters may be absent.
+struct ModelChoice {
+  astro::ModelKind kind;
+  std::vector<std::optional<double>> params;
+};
+ModelChoice model_choice_from_options(const po::variables_map& vm);
 
 // The option name ("diameter-mas") of a model parameter ("diameter_mas").
 std::string model_option_name(std::string_view param_name);
