@@ -123,7 +123,7 @@ int run_night(const po::variables_map& vm) {
   std::vector<std::string> warnings;
   in.instrument = io::read_instrument(text_option(vm, "instrument", "give the instrument file, e.g. --instrument catalogs-demo/instrument-large.ini"), &warnings);
   for (const auto& w : warnings) warn(w);
-  in.targets = io::read_target_catalog(text_option(vm, "catalog", "give the target catalog, e.g. --catalog catalogs-demo/targets.csv"));
+  in.targets = load_catalog(vm);
   const std::string date_text = text_option(vm, "date", "the night's evening date, e.g. --date 2026-03-14");
   in.date = astro::parse_date(date_text, "--date");
   in.constraints = load_constraints(vm, site_path, in.site);

@@ -7,6 +7,7 @@
 #include "astro/units.hpp"
 #include "io/table.hpp"
 #include "io/catalog.hpp"
+#include "io/catalog_fits.hpp"
 #include "io/site_io.hpp"
 
 namespace siiplan::cli {
@@ -51,7 +52,7 @@ void add_catalog_option(po::options_description& desc) {
 }
 
 std::vector<astro::Target> load_catalog(const po::variables_map& vm) {
-  return io::read_catalog(text_option(vm, "catalog", "give the target catalog, e.g. --catalog catalogs-demo/targets.csv"));
+  return io::read_target_catalog(text_option(vm, "catalog", "give the target catalog, e.g. --catalog catalogs-demo/targets.csv"));
 }
 
 astro::Target load_target(const po::variables_map& vm) {

@@ -33,3 +33,9 @@ siiplan_cli_test(NAME night_bad_moonlit EXIT 2 ARGS night ${NIGHT_COMMON} --cata
                  STDERR "--moonlit: 'maybe' is not yes or no" ABSENT ${OUT}/night-bad5/report.html)
 siiplan_cli_test(NAME night_bad_slot EXIT 2 ARGS night ${NIGHT_COMMON} --catalog ${DEMO}/targets.csv --slot-min 0 --out ${OUT}/night-bad6
                  STDERR "slot = 0 min; must lie within" ABSENT ${OUT}/night-bad6/report.html)
+
+# FITS binary-table catalogs (written by astropy: scripts/make_night_fits_catalogs.py)
+siiplan_cli_test(NAME night_fits_catalog EXIT 0 ARGS night ${NIGHT_COMMON} --catalog ${DATA}/night-targets.fits --out ${OUT}/night-fits
+                 STDOUT "24 of 40 targets observable")
+siiplan_cli_test(NAME night_fits_bad_ra EXIT 2 ARGS night ${NIGHT_COMMON} --catalog ${DATA}/night-bad-ra.fits --out ${OUT}/night-bad7
+                 STDERR "night-bad-ra.fits\\[TARGETS\\] row 2: column 'ra'.*outside 0 .. 360" ABSENT ${OUT}/night-bad7/report.html)
