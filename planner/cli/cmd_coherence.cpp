@@ -159,9 +159,9 @@ const Register reg{Command{
     "a single mirror partly resolves the star.\n\n"
     "Example (the Sun, common practice: about 900 um^2, a circle about 34 um across):\n"
     "  siiplan coherence --diameter-deg 0.53 --wavelength-nm 500\n"
-    "  coherence_radius_circle_m   1.7205508e-05\n"
-    "  coherence_area_circle_m2    9.3000201e-10\n"
-    "  coherence_area_integral_m2  3.720008e-09\n"
+    "  coherence_radius_circle_m    1.7205484e-05  radius lambda/(pi theta) inside which |gamma| >= 0.8801\n"
+    "  coherence_area_circle_m2     9.3000153e-10  area of that circle, lambda^2/(pi theta^2)\n"
+    "  coherence_area_integral_m2   3.7200061e-09  integral of |gamma|^2 over the plane, 4 lambda^2/(pi theta^2)\n"
     "CSV (--format csv) gives one row whose columns are the quantity names.",
     {},
     [](po::options_description& desc) {

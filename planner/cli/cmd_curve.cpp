@@ -150,13 +150,16 @@ const Register reg{Command{
     "the central wavelength is shown beside it. The first null and the |V|^2 = 0.5 baseline (of the\n"
     "monochromatic model, along --baseline-pa-deg) get rows of their own, marked in the 'note' column, and\n"
     "vertical markers in the --plot chart. Default baselines: 0 to twice the first null in 200 steps.\n\n"
-    "Example (a 1 mas uniform disk at 420 nm, models.md check values):\n"
+    "Example (a 1 mas uniform disk at 420 nm; first null 105.661488999 m and half power 44.5715007872 m,\n"
+    "models.md §3):\n"
     "  siiplan curve --model ud --diameter-mas 1 --wavelength-nm 420 --baselines-m 0:120:20\n"
-    "  baseline_m  vis2           note\n"
-    "          40  0.5522663...\n"
-    "  44.5715008  0.5            half power\n"
-    "         100  0.003305...\n"
-    "  105.661489  0              first null\n"
+    "  First null: 105.661489 m;  |V|^2 = 0.5 at: 44.57150079 m  (monochromatic, at the central wavelength)\n"
+    "  baseline_m           vis2  note\n"
+    "          40      0.5761707\n"
+    "   44.571501            0.5  half power\n"
+    "         100   0.0021684476\n"
+    "   105.66149  1.5691938e-32  first null\n"
+    "         120   0.0074786431\n"
     "CSV columns: baseline_m, vis2, [vis2_monochromatic,] note.",
     {},
     [](po::options_description& desc) {

@@ -63,7 +63,7 @@ ModelChoice model_choice_from_options(const po::variables_map& vm) {
     std::string opt = model_option_name(p.param);
     if (vm.count(opt) && !uses(p.param))
       throw InputError("--" + opt, "does not apply to model '" + name + "'",
-                       "remove it or choose the model that uses it (see 'siiplan help curve')");
+                       "remove it, or choose a model that uses it: see 'siiplan help curve'");
   }
 
   ModelChoice choice{*kind, {}};
