@@ -171,8 +171,25 @@ class RunReducer {
     const double sigma_pos = fwhm_ / kFwhmPerSigma * std::numbers::sqrt2 / std::max(best_snr, 1e-300);
     // Look-elsewhere guard: the offset must also beat the predicted position clearly (the SNR
     // difference of pure noise over ~100 trial offsets stays below ~3, common practice).
-    const double gain = best_snr - snr_at(0.0);
-    if (best_snr >= opt_.offset_snr && gain >= 4.0 && std::fabs(best_o) > 5.0 * sigma_pos) {
+    // If the best structure were the star moved by best_o, the SNR at the prediction would be its SNR
+    // times the overlap rho of the responses at 0 and at best_o. A clear excess (>= 3) means a structure
+    // of its own sits at the prediction: the far one is then left to the spurious search, not taken
+    // as an offset.
+    const double snr_zero = snr_at(0.0);
+    summary_.snr_at_prediction = snr_zero;
+    std::vector<double> h0(h.size());
+    st.mixture.evaluate(0.0, h0);
+    st.mixture.evaluate(best_o, h);
+    double s01 = 0, s00 = 0, s11 = 0;
+    for (std::size_t k = 0; k < h.size(); ++k) {
+      s01 += st.sum_w[k] * h0[k] * h[k];
+      s00 += st.sum_w[k] * h0[k] * h0[k];
+      s11 += st.sum_w[k] * h[k] * h[k];
+    }
+    const double rho = s00 > 0 && s11 > 0 ? s01 / std::sqrt(s00 * s11) : 0.0;
+    const bool star_at_prediction = snr_zero - rho * best_snr >= 3.0;
+    if (best_snr >= opt_.offset_snr && best_snr - snr_zero >= 4.0 && std::fabs(best_o) > 5.0 * sigma_pos &&
+        !star_at_prediction) {
       offset_s_ = best_o;
       summary_.offset_applied = true;
     }

@@ -12,7 +12,8 @@
 //      goes into the fitted response (ResponseMixture). A residual fixed offset per run is searched by
 //      scanning the matched-filter SNR over +-offset_search_s in the stack of all frames, and applied
 //      when it is significant (SNR >= offset_snr, SNR above that at the predicted position by >= 4,
-//      and |offset| > 5 sigma of its position).
+//      |offset| > 5 sigma of its position, and no excess of SNR >= 3 at the predicted delay over what
+//      the offset structure itself puts there; otherwise the far structure is treated as spurious, step 4).
 //   4. Spurious structures: a second significant peak (SNR >= spurious_snr) at a fixed instrumental
 //      delay more than 3 FWHM from the star's delays is reported and its bins masked in every frame.
 //      Per chunk, a chi^2 of the peak-region residuals far above its expectation flags the chunk.
@@ -69,6 +70,7 @@ struct RunSummary {
   double chunk_s = 0;
   long frames = 0, frames_rate_drop = 0;
   double offset_s = 0, offset_snr = 0;     // best residual offset found and its SNR
+  double snr_at_prediction = 0;            // SNR of the stack at the predicted delay
   bool offset_applied = false;
   double spurious_delay_s = NAN, spurious_snr = 0;   // instrumental delay of a second structure
   int chunks = 0, chunks_flagged = 0, chunks_empty = 0;

@@ -75,9 +75,10 @@ void print_summary(std::ostream& out, const std::string& file, const Correlation
   for (const auto& r : red.runs) {
     std::snprintf(buf, sizeof buf,
                   "  %-8s %-12s chunks %3d of %5.0f s, flagged %d, empty %d; frames %ld, rejected for rate drops %ld; "
-                  "offset %+.3f ns (SNR %.1f, %s)",
+                  "SNR %.1f at the predicted delay, best offset %+.3f ns (SNR %.1f, %s)",
                   r.pair.c_str(), r.target.c_str(), r.chunks, r.chunk_s, r.chunks_flagged, r.chunks_empty, r.frames,
-                  r.frames_rate_drop, r.offset_s * 1e9, r.offset_snr, r.offset_applied ? "applied" : "not significant");
+                  r.frames_rate_drop, r.snr_at_prediction, r.offset_s * 1e9, r.offset_snr,
+                  r.offset_applied ? "applied" : "not applied");
     out << buf;
     if (std::isfinite(r.spurious_delay_s)) {
       std::snprintf(buf, sizeof buf, "; spurious structure at %+.3f ns (SNR %.1f) masked", r.spurious_delay_s * 1e9, r.spurious_snr);
