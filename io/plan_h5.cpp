@@ -176,7 +176,6 @@ struct Reader {
 const char* mode_name(astro::DetectionMode m) { return m == astro::DetectionMode::Analog ? "analog" : "photon-counting"; }
 const char* profile_name(astro::FilterProfile p) { return p == astro::FilterProfile::TopHat ? "top-hat" : "gaussian"; }
 const char* zero_name(astro::ZeroBaseline z) { return z == astro::ZeroBaseline::Calibrated ? "calibrated" : "free"; }
-constexpr std::array<const char*, astro::kBandCount> kBandNames{"U", "B", "V", "R", "I"};
 
 // Silences HDF5's automatic error stack printing while a file is open (errors become exceptions).
 struct QuietHdf5 {
@@ -265,7 +264,7 @@ void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
       w.attr(g, "max_rate_hz", in.max_rate_hz);
       w.attr(g, "dark_rate_hz", in.dark_rate_hz);
       w.attr_text(g, "zero_baseline", zero_name(in.zero_baseline));
-      w.attr_text(g, "band", kBandNames[std::size_t(in.band)]);
+      w.attr_text(g, "band", std::string(astro::band_name(in.band)));
     }
     {
       Handle g(w.group(file, "targets"), H5Gclose);
@@ -399,9 +398,7 @@ PlanFile read_plan_h5(const std::filesystem::path& path) {
     in.max_rate_hz = r.attr(g, "max_rate_hz");
     in.dark_rate_hz = r.attr(g, "dark_rate_hz");
     in.zero_baseline = r.attr_text(g, "zero_baseline") == "free" ? astro::ZeroBaseline::Free : astro::ZeroBaseline::Calibrated;
-    auto band = r.attr_text(g, "band");
-    for (int b = 0; b < astro::kBandCount; ++b)
-      if (band == kBandNames[std::size_t(b)]) in.band = astro::Band(b);
+    if (!astro::band_from_name(r.attr_text(g, "band"), in.band)) r.fail("instrument band is not U, B, V, R or I");
   }
   {
     Handle g(r.open_group(file, "targets"), H5Gclose);
