@@ -2,6 +2,9 @@
 #include "astro/reduction.hpp"
 
 #include <algorithm>
+#include <memory>
+
+#include <Eigen/Dense>
 
 #include "astro/errors.hpp"
 #include "astro/units.hpp"
@@ -314,6 +317,17 @@ class RunReducer {
   }
 
   RunSummary& summary() { return summary_; }
+  const std::string& telescope_1() const { return run_.meta.telescope_1.name; }
+  const std::string& telescope_2() const { return run_.meta.telescope_2.name; }
+  double fwhm_s() const { return fwhm_; }
+  double applied_offset_s() const { return offset_s_; }
+  // Replaces the run's offset by the one implied by the night's per-telescope offsets.
+  void set_offset_from_night(double offset_s) {
+    offset_s_ = offset_s;
+    summary_.offset_from_night = true;
+    summary_.offset_applied = true;
+    summary_.offset_s = offset_s;
+  }
 
  private:
   const CorrelationRun& run_;
@@ -329,20 +343,80 @@ class RunReducer {
   RunSummary summary_;
 };
 
+// Timing offsets belong to telescopes, not pairs: a run's offset is delta_1 - delta_2. Every run where
+// the star was found (at an applied offset, or at the prediction with SNR >= offset_snr) gives one
+// equation, weighted by its SNR^2; the per-telescope offsets are solved by least squares (a 1e-9 ridge
+// fixes the free common offset) and every run whose two telescopes are connected by such equations
+// takes delta_1 - delta_2 when that differs from its own value by more than a quarter FWHM. Runs too
+// faint to find a shifted star on their own are thereby realigned too.
+void apply_telescope_offsets(std::vector<std::unique_ptr<RunReducer>>& reducers) {
+  std::vector<std::string> names;
+  auto index = [&](const std::string& n) {
+    for (std::size_t i = 0; i < names.size(); ++i)
+      if (names[i] == n) return int(i);
+    names.push_back(n);
+    return int(names.size()) - 1;
+  };
+  struct Equation { int i, j; double offset, weight; };
+  std::vector<Equation> eq;
+  for (auto& r : reducers) {
+    const RunSummary& s = r->summary();
+    if (s.offset_applied) eq.push_back({index(r->telescope_1()), index(r->telescope_2()), s.offset_s, s.offset_snr * s.offset_snr});
+    else if (s.snr_at_prediction >= 5.0) eq.push_back({index(r->telescope_1()), index(r->telescope_2()), 0.0, s.snr_at_prediction * s.snr_at_prediction});
+  }
+  bool any_offset = false;
+  for (const auto& e : eq) any_offset = any_offset || e.offset != 0.0;
+  if (!any_offset) return;
+  const int n = int(names.size());
+  Eigen::MatrixXd a = Eigen::MatrixXd::Identity(n, n) * 1e-9;
+  Eigen::VectorXd b = Eigen::VectorXd::Zero(n);
+  std::vector<int> component(static_cast<std::size_t>(n));
+  for (int k = 0; k < n; ++k) component[std::size_t(k)] = k;
+  auto root = [&](int k) {
+    while (component[std::size_t(k)] != k) k = component[std::size_t(k)];
+    return k;
+  };
+  for (const auto& e : eq) {
+    a(e.i, e.i) += e.weight;
+    a(e.j, e.j) += e.weight;
+    a(e.i, e.j) -= e.weight;
+    a(e.j, e.i) -= e.weight;
+    b(e.i) += e.weight * e.offset;
+    b(e.j) -= e.weight * e.offset;
+    component[std::size_t(root(e.i))] = root(e.j);
+  }
+  const Eigen::VectorXd delta = a.ldlt().solve(b);
+  for (auto& r : reducers) {
+    int i = -1, j = -1;
+    for (int k = 0; k < n; ++k) {
+      if (names[std::size_t(k)] == r->telescope_1()) i = k;
+      if (names[std::size_t(k)] == r->telescope_2()) j = k;
+    }
+    if (i < 0 || j < 0 || root(i) != root(j)) continue;
+    const double predicted = delta(i) - delta(j);
+    if (std::fabs(predicted - r->applied_offset_s()) > 0.25 * r->fwhm_s()) r->set_offset_from_night(predicted);
+  }
+}
+
 }  // namespace
 
 Reduction reduce_correlations(const CorrelationSet& data, const ReduceOptions& options, const ZeroBaselineSpec& zero,
                               bool* dubious) {
   Reduction red;
+  std::vector<std::unique_ptr<RunReducer>> reducers;
+  std::vector<std::size_t> run_index;
   for (std::size_t r = 0; r < data.runs.size(); ++r) {
     const CorrelationRun& run = data.runs[r];
     if (run.frames() == 0) continue;
-    RunReducer reducer(data.site, run, options, dubious);
-    reducer.search_offset();
-    reducer.search_spurious();
-    reducer.reduce_chunks(r, red.points);
-    red.runs.push_back(reducer.summary());
-    red.runs.back().zero_baseline_s = NAN;
+    reducers.push_back(std::make_unique<RunReducer>(data.site, run, options, dubious));
+    reducers.back()->search_offset();
+    run_index.push_back(r);
+  }
+  apply_telescope_offsets(reducers);
+  for (std::size_t i = 0; i < reducers.size(); ++i) {
+    reducers[i]->search_spurious();
+    reducers[i]->reduce_chunks(run_index[i], red.points);
+    red.runs.push_back(reducers[i]->summary());
   }
   // Zero-baseline correlation per run.
   std::vector<double> a0(data.runs.size(), NAN), a0_err(data.runs.size(), NAN);

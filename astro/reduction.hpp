@@ -14,6 +14,8 @@
 //      when it is significant (SNR >= offset_snr, SNR above that at the predicted position by >= 4,
 //      |offset| > 5 sigma of its position, and no excess of SNR >= 3 at the predicted delay over what
 //      the offset structure itself puts there; otherwise the far structure is treated as spurious, step 4).
+//      Offsets belong to telescopes: the runs where the star was found fix one offset per telescope
+//      (least squares), which then realigns every run of those telescopes, faint ones included.
 //   4. Spurious structures: a second significant peak (SNR >= spurious_snr) at a fixed instrumental
 //      delay more than 3 FWHM from the star's delays is reported and its bins masked in every frame.
 //      Per chunk, a chi^2 of the peak-region residuals far above its expectation flags the chunk.
@@ -72,6 +74,7 @@ struct RunSummary {
   double offset_s = 0, offset_snr = 0;     // best residual offset found and its SNR
   double snr_at_prediction = 0;            // SNR of the stack at the predicted delay
   bool offset_applied = false;
+  bool offset_from_night = false;          // applied from the night's per-telescope offsets
   double spurious_delay_s = NAN, spurious_snr = 0;   // instrumental delay of a second structure
   int chunks = 0, chunks_flagged = 0, chunks_empty = 0;
   double zero_baseline_s = NAN, zero_baseline_err_s = NAN;

@@ -78,7 +78,7 @@ void print_summary(std::ostream& out, const std::string& file, const Correlation
                   "SNR %.1f at the predicted delay, best offset %+.3f ns (SNR %.1f, %s)",
                   r.pair.c_str(), r.target.c_str(), r.chunks, r.chunk_s, r.chunks_flagged, r.chunks_empty, r.frames,
                   r.frames_rate_drop, r.snr_at_prediction, r.offset_s * 1e9, r.offset_snr,
-                  r.offset_applied ? "applied" : "not applied");
+                  r.offset_from_night ? "applied from the night's telescope offsets" : r.offset_applied ? "applied" : "not applied");
     out << buf;
     if (std::isfinite(r.spurious_delay_s)) {
       std::snprintf(buf, sizeof buf, "; spurious structure at %+.3f ns (SNR %.1f) masked", r.spurious_delay_s * 1e9, r.spurious_snr);
