@@ -73,6 +73,8 @@ Faults read_faults(const po::variables_map& vm, double t0_mjd) {
 std::vector<SimRun> runs_from_plan(const io::PlanFile& plan, const po::variables_map& vm) {
   std::optional<std::string> override_target;
   if (given(vm, "target")) override_target = text_option(vm, "target", "");
+  else if (given(vm, "model") || given(vm, "diameter-mas"))
+    throw InputError("--model", "with a plan, model options change one target only", "name it with --target NAME");
   bool found = !override_target;
   std::vector<SimRun> runs;
   for (const auto& block : plan.blocks) {

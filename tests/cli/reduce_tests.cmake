@@ -47,3 +47,27 @@ siiplan_cli_test(NAME simulate_unknown_telescope EXIT 2
   STDERR "--drop-telescope: no telescope 'Nessie'" ABSENT ${OUT}/simulate_bad.h5)
 siiplan_cli_test(NAME simulate_no_plan_file EXIT 2 ARGS simulate ${OUT}/no_such_plan.h5 -o ${OUT}/simulate_bad.h5
   STDERR "no_such_plan.h5" ABSENT ${OUT}/simulate_bad.h5)
+
+# The chain from a night plan: night -> simulate (one target's model overridden) -> reduce.
+siiplan_cli_test(NAME simulate_plan_setup EXIT 0
+  ARGS night --site ${DEMO}/site.ini --array ${DEMO}/array-small.csv --instrument ${DEMO}/instrument-small.ini
+       --catalog ${DEMO}/targets.csv --date 2026-03-14 --out ${OUT}/simulate_plan
+  STDOUT "plan.h5")
+set_tests_properties("cli: simulate_plan_setup" PROPERTIES FIXTURES_SETUP simulate_plan)
+siiplan_cli_test(NAME simulate_plan EXIT 0
+  ARGS simulate ${OUT}/simulate_plan/plan.h5 --seed 2 --frame-s 5 --target Ismer --diameter-mas 1.5
+       -o ${OUT}/simulate_plan.h5
+  STDOUT "wrote .*simulate_plan.h5: 9 runs")
+set_tests_properties("cli: simulate_plan" PROPERTIES FIXTURES_REQUIRED simulate_plan FIXTURES_SETUP simulate_plan_corr)
+siiplan_cli_test(NAME reduce_plan EXIT 0
+  ARGS reduce ${OUT}/simulate_plan.h5 --csv ${OUT}/reduce_plan.csv
+  STDOUT "Quoll-Robin Yselde .* good \\|V\\|\\^2 points")
+set_tests_properties("cli: reduce_plan" PROPERTIES FIXTURES_REQUIRED simulate_plan_corr)
+siiplan_cli_test(NAME simulate_plan_model_without_target EXIT 2
+  ARGS simulate ${OUT}/simulate_plan/plan.h5 --diameter-mas 2 -o ${OUT}/simulate_bad.h5
+  STDERR "--model: with a plan, model options change one target only" ABSENT ${OUT}/simulate_bad.h5)
+set_tests_properties("cli: simulate_plan_model_without_target" PROPERTIES FIXTURES_REQUIRED simulate_plan)
+siiplan_cli_test(NAME simulate_plan_unknown_target EXIT 2
+  ARGS simulate ${OUT}/simulate_plan/plan.h5 --target Nobody --diameter-mas 2 -o ${OUT}/simulate_bad.h5
+  STDERR "--target: no block of the plan observes 'Nobody'" ABSENT ${OUT}/simulate_bad.h5)
+set_tests_properties("cli: simulate_plan_unknown_target" PROPERTIES FIXTURES_REQUIRED simulate_plan)
