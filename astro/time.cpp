@@ -34,6 +34,15 @@ bool parse_int(std::string_view s, int& out) {
 
 std::string quoted(std::string_view s) { return "'" + std::string(s) + "'"; }
 
+// UTC, and ERFA's table of TAI-UTC (eraDat), begin in 1960; eraDat flags earlier dates as "dubious"
+// and gives TAI-UTC = 0 for them, which is not a leap-second question but a date outside ERFA's range.
+constexpr int kFirstUtcYear = 1960;
+void require_utc_year(int year, std::string_view where, const std::string& shown) {
+  if (year < kFirstUtcYear)
+    throw InputError(std::string(where), shown + " lies before 1960, where UTC and ERFA's leap-second table begin",
+                     "give a date from 1960 on");
+}
+
 }  // namespace
 
 JulianDate utc_from_mjd(double mjd_utc) {
@@ -59,6 +68,8 @@ JulianDate utc_from_calendar(const CalendarDate& date, int hour, int minute, dou
     throw InputError(std::string(where), std::string(buf) + ": " + what,
                      "write a valid UTC date and time such as 2026-03-14T21:30:00");
   }
+  require_utc_year(date.year, where, "the date " + std::to_string(date.year) + "-" + std::to_string(date.month) + "-" +
+                                         std::to_string(date.day));
   note_status(status, dubious);
   return t;
 }
@@ -72,6 +83,7 @@ CalendarDate parse_date(std::string_view text, std::string_view where) {
   double djm0, djm;
   if (eraCal2jd(d.year, d.month, d.day, &djm0, &djm) != 0)
     throw InputError(std::string(where), quoted(text) + " is not a valid calendar date", hint);
+  require_utc_year(d.year, where, quoted(text));
   return d;
 }
 

@@ -102,6 +102,10 @@ std::vector<astro::Target> read_catalog_fits(const std::filesystem::path& path) 
     long repeat = 0;
     fits_get_eqcoltype(raw, c, &type[std::size_t(c)], &repeat, &width[std::size_t(c)], &status);
     if (status) throw InputError(source, "column " + std::to_string(c) + ": " + fits_message(status), "check the table header");
+    const std::string column = lower(trim(name));
+    if ((column == "name" || column == "model") && type[std::size_t(c)] != TSTRING)
+      throw InputError(source + " column '" + trim(name) + "'", "is numeric, but it must hold text",
+                       "store it as a character column (TFORM nA)");
     text += (c > 1 ? "," : "") + csv_escape(trim(name));
   }
   text += '\n';

@@ -8,7 +8,7 @@
 #include <cstring>
 
 #include "astro/errors.hpp"
-#include "io/atomic_file.hpp"
+#include "io/hdf5_output.hpp"
 
 namespace siiplan::io {
 namespace {
@@ -53,6 +53,7 @@ struct Quiet {
 
 struct Writer {
   std::string file;
+  hid_t dcpl = H5P_DEFAULT;   // dataset creation properties (no modification times)
   void check(bool ok, const std::string& what) const {
     if (!ok) throw RuntimeFailure(file, "HDF5 could not write " + what, "check free disk space and permissions");
   }
@@ -78,7 +79,7 @@ struct Writer {
             std::initializer_list<hsize_t> dims) const {
     std::vector<hsize_t> d(dims);
     Id space(H5Screate_simple(int(d.size()), d.data(), nullptr), H5Sclose);
-    Id ds(H5Dcreate2(parent, name, file_type, space, H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT), H5Dclose);
+    Id ds(H5Dcreate2(parent, name, file_type, space, H5P_DEFAULT, dcpl, H5P_DEFAULT), H5Dclose);
     bool empty = false;
     for (auto n : d) empty = empty || n == 0;
     check(ds.ok() && (empty || H5Dwrite(ds, mem_type, H5S_ALL, H5S_ALL, H5P_DEFAULT, v) >= 0), name);
@@ -187,16 +188,15 @@ std::string run_name(std::size_t i) {
 
 void write_correlation_h5(const std::filesystem::path& path, const CorrelationSet& set) {
   Quiet quiet;
-  AtomicPath out(path);
-  Writer w{path.string()};
+  Hdf5MemoryFile out(path);
+  Writer w{path.string(), out.dataset_properties()};
   {
-    Id file(H5Fcreate(out.temp().c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, H5P_DEFAULT), H5Fclose);
-    w.check(file.ok(), "the file");
+    const hid_t file = out.id();
     w.attr_text(file, "format", "siiplan-correlation");
     w.attr_int(file, "format_version", kCorrelationFormatVersion);
     w.attr_text(file, "creator", set.creator);
     {
-      Id g(H5Gcreate2(file, "site", H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT), H5Gclose);
+      Id g(H5Gcreate2(file, "site", H5P_DEFAULT, out.group_properties(), H5P_DEFAULT), H5Gclose);
       w.check(g.ok(), "/site");
       w.attr_text(g, "name", set.site.name);
       w.attr(g, "lat_rad", set.site.lat_rad);
@@ -204,13 +204,13 @@ void write_correlation_h5(const std::filesystem::path& path, const CorrelationSe
       w.attr(g, "height_m", set.site.height_m);
       w.attr(g, "dut1_s", set.site.dut1_s);
     }
-    Id runs(H5Gcreate2(file, "runs", H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT), H5Gclose);
+    Id runs(H5Gcreate2(file, "runs", H5P_DEFAULT, out.group_properties(), H5P_DEFAULT), H5Gclose);
     w.check(runs.ok(), "/runs");
     w.attr_int(runs, "count", int(set.runs.size()));
     for (std::size_t i = 0; i < set.runs.size(); ++i) {
       const CorrelationRun& r = set.runs[i];
       const auto& m = r.meta;
-      Id g(H5Gcreate2(runs, run_name(i).c_str(), H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT), H5Gclose);
+      Id g(H5Gcreate2(runs, run_name(i).c_str(), H5P_DEFAULT, out.group_properties(), H5P_DEFAULT), H5Gclose);
       w.check(g.ok(), "/runs/" + run_name(i));
       w.attr_text(g, "telescope_1", m.telescope_1.name);
       w.attr_text(g, "telescope_2", m.telescope_2.name);
@@ -250,7 +250,6 @@ void write_correlation_h5(const std::filesystem::path& path, const CorrelationSe
       }
       w.data(g, "rate_hz", H5T_IEEE_F64LE, H5T_NATIVE_DOUBLE, rates.data(), {nf, 2});
     }
-    w.check(H5Fflush(file, H5F_SCOPE_GLOBAL) >= 0, "the file (flush)");
   }
   out.commit();
 }

@@ -25,20 +25,6 @@ bool iequal(std::string_view a, std::string_view b) {
          });
 }
 
-// Index of the first byte that is not valid UTF-8, or npos.
-std::size_t invalid_utf8_at(std::string_view s) {
-  std::size_t i = 0;
-  while (i < s.size()) {
-    auto c = static_cast<unsigned char>(s[i]);
-    std::size_t n = c < 0x80 ? 1 : (c >> 5) == 0x6 ? 2 : (c >> 4) == 0xE ? 3 : (c >> 3) == 0x1E ? 4 : 0;
-    if (n == 0 || i + n > s.size()) return i;
-    for (std::size_t k = 1; k < n; ++k)
-      if ((static_cast<unsigned char>(s[i + k]) >> 6) != 0x2) return i;
-    i += n;
-  }
-  return std::string_view::npos;
-}
-
 // Split one CSV record (no embedded newlines) into trimmed fields.
 std::vector<std::string> split_record(std::string_view line, const std::string& where) {
   std::vector<std::string> out;
@@ -74,6 +60,19 @@ std::vector<std::string> split_record(std::string_view line, const std::string& 
 }
 
 }  // namespace
+
+std::size_t invalid_utf8_at(std::string_view s) {
+  std::size_t i = 0;
+  while (i < s.size()) {
+    auto c = static_cast<unsigned char>(s[i]);
+    std::size_t n = c < 0x80 ? 1 : (c >> 5) == 0x6 ? 2 : (c >> 4) == 0xE ? 3 : (c >> 3) == 0x1E ? 4 : 0;
+    if (n == 0 || i + n > s.size()) return i;
+    for (std::size_t k = 1; k < n; ++k)
+      if ((static_cast<unsigned char>(s[i + k]) >> 6) != 0x2) return i;
+    i += n;
+  }
+  return std::string_view::npos;
+}
 
 std::optional<double> parse_number(std::string_view text) {
   text = trim(text);

@@ -52,6 +52,9 @@ CsvTable read_csv(const std::filesystem::path& path);
 // Read a whole file as bytes; InputError when it is missing, a directory or unreadable.
 std::string read_file_text(const std::filesystem::path& path);
 
+// Index of the first byte of `text` that is not valid UTF-8, or npos (shared with the INI reader).
+std::size_t invalid_utf8_at(std::string_view text);
+
 // Parse a finite double from the whole of `text` (surrounding spaces allowed); nullopt otherwise.
 std::optional<double> parse_number(std::string_view text);
 

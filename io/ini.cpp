@@ -32,6 +32,9 @@ IniFile IniFile::parse(const std::string& text, const std::string& source) {
     int n = 0;
     while (std::getline(in, line)) {
       ++n;
+      if (std::size_t bad = invalid_utf8_at(line); bad != std::string::npos)
+        throw InputError(source + ":" + std::to_string(n), "byte " + std::to_string(bad + 1) + " of the line is not valid UTF-8 text",
+                         "save the file as UTF-8 (or plain ASCII)");
       std::string t = trim(line);
       if (t.empty() || t[0] == '#' || t[0] == ';') continue;
       if (t.front() == '[') {

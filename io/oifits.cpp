@@ -7,6 +7,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstdio>
+#include <fstream>
 #include <map>
 #include <memory>
 
@@ -389,6 +390,22 @@ Vis2Data read_oifits(const fs::path& path, const std::optional<std::string>& tar
   int nhdu = 0;
   fits_get_num_hdus(raw, &nhdu, &status);
   r.check(status, "HDU count");
+  {
+    // cfitsio counts complete HDUs only: a file cut short reads as one with fewer tables. For an
+    // uncompressed file ("SIMPLE" at byte 0) the last HDU must end exactly at the end of the file.
+    char start[6] = {};
+    std::ifstream(path, std::ios::binary).read(start, sizeof start);
+    LONGLONG head = 0, data_start = 0, data_end = 0;
+    int type = 0;
+    fits_movabs_hdu(raw, nhdu, &type, &status);
+    fits_get_hduaddrll(raw, &head, &data_start, &data_end, &status);
+    r.check(status, "HDU " + std::to_string(nhdu));
+    const auto size = LONGLONG(fs::file_size(path, ec));
+    if (!ec && std::string(start, sizeof start) == "SIMPLE" && size != data_end)
+      throw InputError(file, "the file is truncated or damaged: HDU " + std::to_string(nhdu) + " ends at byte " +
+                                 std::to_string(data_end) + " but the file has " + std::to_string(size),
+                       "copy or write the file again");
+  }
 
   struct Found {
     int hdu;

@@ -10,7 +10,7 @@
 
 #include "astro/errors.hpp"
 #include "astro/models.hpp"
-#include "io/atomic_file.hpp"
+#include "io/hdf5_output.hpp"
 
 namespace siiplan::io {
 namespace {
@@ -35,11 +35,12 @@ class Handle {
 // Writing: every failure is a RuntimeFailure naming the object.
 struct Writer {
   std::string file;
+  hid_t gcpl = H5P_DEFAULT, dcpl = H5P_DEFAULT;   // creation properties (no modification times)
   void check(bool ok, const std::string& what) const {
     if (!ok) throw RuntimeFailure(file, "HDF5 could not write " + what, "check free disk space and permissions");
   }
   hid_t group(hid_t parent, const char* name) const {
-    hid_t g = H5Gcreate2(parent, name, H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT);
+    hid_t g = H5Gcreate2(parent, name, H5P_DEFAULT, gcpl, H5P_DEFAULT);
     check(g >= 0, name);
     return g;
   }
@@ -63,7 +64,7 @@ struct Writer {
   }
   void data(hid_t parent, const char* name, hid_t mem_type, const void* values, std::vector<hsize_t> dims) const {
     Handle space(H5Screate_simple(int(dims.size()), dims.data(), nullptr), H5Sclose);
-    Handle d(H5Dcreate2(parent, name, mem_type, space, H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT), H5Dclose);
+    Handle d(H5Dcreate2(parent, name, mem_type, space, H5P_DEFAULT, dcpl, H5P_DEFAULT), H5Dclose);
     bool empty = false;
     for (auto n : dims) empty = empty || n == 0;
     check(d.ok() && (empty || H5Dwrite(d, mem_type, H5S_ALL, H5S_ALL, H5P_DEFAULT, values) >= 0), name);
@@ -192,11 +193,10 @@ struct QuietHdf5 {
 
 void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
   QuietHdf5 quiet;
-  AtomicPath out(path);
-  Writer w{path.string()};
+  Hdf5MemoryFile out(path);
+  Writer w{path.string(), out.group_properties(), out.dataset_properties()};
   {
-    Handle file(H5Fcreate(out.temp().c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, H5P_DEFAULT), H5Fclose);
-    w.check(file.ok(), "the file");
+    const hid_t file = out.id();
     w.attr_text(file, "format", "siiplan-plan");
     w.attr_int(file, "format_version", kPlanFormatVersion);
     w.attr_text(file, "date", plan.date);
@@ -327,7 +327,6 @@ void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
         w.data(bg, "usable", H5T_NATIVE_UINT8, blk.usable.data(), {np, ns});
       }
     }
-    w.check(H5Fflush(file, H5F_SCOPE_GLOBAL) >= 0, "the file (flush)");
   }
   out.commit();
 }

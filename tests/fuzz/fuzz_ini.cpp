@@ -4,7 +4,7 @@
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
   siiplan::fuzz::expect_result_or_input_error([&] {
-    auto ini = siiplan::io::IniFile::parse(std::string(reinterpret_cast<const char*>(data), size), "fuzz.ini");
+    auto ini = siiplan::io::IniFile::parse(siiplan::fuzz::text(data, size), "fuzz.ini");
     (void)ini.number_or("site.latitude_deg", 0);
   });
   return 0;
