@@ -1,27 +1,59 @@
 #include "astro/fisher.hpp"
 
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <limits>
+
+#include "astro/disk_kernel.hpp"
 
 namespace siiplan::astro {
 
 namespace {
 constexpr double kInf = std::numeric_limits<double>::infinity();
 constexpr std::size_t kMaxParams = 8;
+
+bool informative(double sigma_vis2) { return sigma_vis2 > 0 && std::isfinite(sigma_vis2); }
+
+// One point's share of F: g = (d m/d theta, d m/d c0) = (d|V|^2/dtheta, |V|^2) at c0 = 1 (models.md §5.1, §5.5).
+void accumulate(double dvis2_dtheta, double vis2, double sigma_vis2, double& ftt, double& ftc, double& fcc) {
+  const double w = 1.0 / (sigma_vis2 * sigma_vis2);
+  ftt += dvis2_dtheta * dvis2_dtheta * w;
+  ftc += dvis2_dtheta * vis2 * w;
+  fcc += vis2 * vis2 * w;
 }
+}  // namespace
 
 DiameterFisher::DiameterFisher(Model model) : model_(std::move(model)) {}
 
 void DiameterFisher::add(double u_lambda, double v_lambda, double sigma_vis2) {
-  if (!(sigma_vis2 > 0) || !std::isfinite(sigma_vis2)) return;   // no information
+  if (!informative(sigma_vis2)) return;
   std::array<double, kMaxParams> grad{};
   double v2 = model_.vis2_and_gradient(u_lambda, v_lambda, std::span<double>(grad.data(), model_.params().size()));
-  double w = 1.0 / (sigma_vis2 * sigma_vis2);
-  // g = (d m/d theta, d m/d c0) at c0 = 1 (models.md §5.1, §5.5).
-  ftt_ += grad[0] * grad[0] * w;
-  ftc_ += grad[0] * v2 * w;
-  fcc_ += v2 * v2 * w;
+  accumulate(grad[0], v2, sigma_vis2, ftt_, ftc_, fcc_);
+}
+
+void DiameterFisher::add_batch(std::span<const double> u_lambda, std::span<const double> v_lambda,
+                               std::span<const double> sigma_vis2) {
+  const auto kind = model_.kind();
+  if (kind != ModelKind::UniformDisk && kind != ModelKind::LinearLD) {
+    for (std::size_t k = 0; k < u_lambda.size(); ++k) add(u_lambda[k], v_lambda[k], sigma_vis2[k]);
+    return;
+  }
+  const DiskLaw law = kind == ModelKind::UniformDisk ? DiskLaw::Uniform : DiskLaw::LinearLimbDarkened;
+  const double limb_u = kind == ModelKind::LinearLD ? model_.params()[1] : 0.0;
+  constexpr std::size_t kChunk = 256;   // stack scratch; the kernel vectorises within a chunk
+  std::array<double, kChunk> q, v2, g;
+  for (std::size_t start = 0; start < u_lambda.size(); start += kChunk) {
+    const std::size_t n = std::min(kChunk, u_lambda.size() - start);
+    for (std::size_t k = 0; k < n; ++k)
+      q[k] = std::sqrt(u_lambda[start + k] * u_lambda[start + k] + v_lambda[start + k] * v_lambda[start + k]);
+    disk_vis2(law, model_.diameter_rad(), limb_u, std::span<const double>(q.data(), n), std::span<double>(v2.data(), n),
+              std::span<double>(g.data(), n));
+    for (std::size_t k = 0; k < n; ++k) {
+      if (informative(sigma_vis2[start + k])) accumulate(g[k], v2[k], sigma_vis2[start + k], ftt_, ftc_, fcc_);
+    }
+  }
 }
 
 void DiameterFisher::merge(const DiameterFisher& other) {

@@ -183,12 +183,28 @@ BaselineXyz baseline_xyz(const Telescope& a, const Telescope& b, double lat_rad)
   return {-sp * n + cp * u, e, cp * n + sp * u};
 }
 
-Uvw uvw_from_xyz(const BaselineXyz& b, double ha_rad, double dec_rad) {
-  double sh = std::sin(ha_rad), ch = std::cos(ha_rad), sd = std::sin(dec_rad), cd = std::cos(dec_rad);
-  // Thompson, Moran & Swenson 2017, eq. (4.1).
-  return {sh * b.x_m + ch * b.y_m, -sd * ch * b.x_m + sd * sh * b.y_m + cd * b.z_m,
-          cd * ch * b.x_m - cd * sh * b.y_m + sd * b.z_m};
+UvwProjection::UvwProjection(double ha_rad, double dec_rad)
+    : sin_ha(std::sin(ha_rad)), cos_ha(std::cos(ha_rad)), sin_dec(std::sin(dec_rad)), cos_dec(std::cos(dec_rad)) {}
+
+void BaselineArrays::push_back(const BaselineXyz& b) {
+  x_m.push_back(b.x_m);
+  y_m.push_back(b.y_m);
+  z_m.push_back(b.z_m);
 }
+
+void project_uv(const UvwProjection& projection, const BaselineArrays& b, std::span<double> u_m, std::span<double> v_m) {
+  const std::size_t n = b.size();
+  const double* x = b.x_m.data();
+  const double* y = b.y_m.data();
+  const double* z = b.z_m.data();
+  for (std::size_t k = 0; k < n; ++k) {   // the compiler drops w and vectorises the loop
+    const Uvw uvw = projection(BaselineXyz{x[k], y[k], z[k]});
+    u_m[k] = uvw.u_m;
+    v_m[k] = uvw.v_m;
+  }
+}
+
+Uvw uvw_from_xyz(const BaselineXyz& b, double ha_rad, double dec_rad) { return UvwProjection(ha_rad, dec_rad)(b); }
 
 Uvw baseline_uvw(const Telescope& a, const Telescope& b, double lat_rad, double ha_rad, double dec_rad) {
   return uvw_from_xyz(baseline_xyz(a, b, lat_rad), ha_rad, dec_rad);

@@ -7,7 +7,9 @@
 #pragma once
 
 #include <memory>
+#include <span>
 #include <string>
+#include <vector>
 
 #include "astro/site.hpp"
 #include "astro/time.hpp"
@@ -101,7 +103,37 @@ struct BaselineXyz {
   double x_m = 0, y_m = 0, z_m = 0;
 };
 BaselineXyz baseline_xyz(const Telescope& a, const Telescope& b, double lat_rad);
-// TMS eq. (4.1): (u,v,w) of an equatorial baseline for a source at hour angle ha, declination dec.
+
+// The projection of TMS eq. (4.1) for one source direction: sin and cos of the hour angle and the
+// declination, computed once per (source, instant) and applied to any number of baselines (the
+// trigonometry is the same for every pair of an array; only the matrix-vector product is per pair).
+//
+//   | u |   |  sin H          cos H         0     | | X |
+//   | v | = | -sin d cos H    sin d sin H   cos d | | Y |     (metres; Thompson, Moran & Swenson 2017,
+//   | w |   |  cos d cos H   -cos d sin H   sin d | | Z |      §4.1, eq. 4.1; geometry.md §1.4)
+struct UvwProjection {
+  double sin_ha = 0, cos_ha = 1, sin_dec = 0, cos_dec = 1;
+  UvwProjection() = default;
+  UvwProjection(double ha_rad, double dec_rad);
+  Uvw operator()(const BaselineXyz& b) const {
+    return {sin_ha * b.x_m + cos_ha * b.y_m, -sin_dec * cos_ha * b.x_m + sin_dec * sin_ha * b.y_m + cos_dec * b.z_m,
+            cos_dec * cos_ha * b.x_m - cos_dec * sin_ha * b.y_m + sin_dec * b.z_m};
+  }
+};
+
+// Many baselines in structure-of-arrays form, for projecting a whole array at once.
+struct BaselineArrays {
+  std::vector<double> x_m, y_m, z_m;
+  void push_back(const BaselineXyz& b);
+  std::size_t size() const { return x_m.size(); }
+};
+
+// u and v (metres) of every baseline of `b` for one source direction: UvwProjection applied to each
+// (w is not needed for |V|^2). u_m and v_m must hold b.size() values.
+void project_uv(const UvwProjection& projection, const BaselineArrays& b, std::span<double> u_m, std::span<double> v_m);
+
+// TMS eq. (4.1): (u,v,w) of an equatorial baseline for a source at hour angle ha, declination dec
+// (UvwProjection(ha, dec) applied to b).
 Uvw uvw_from_xyz(const BaselineXyz& b, double ha_rad, double dec_rad);
 
 // (u,v,w) of the baseline from telescope a to telescope b for a source at (ha, dec), site latitude lat

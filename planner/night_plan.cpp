@@ -56,8 +56,9 @@ bool moon_up(double moon_alt_rad) { return moon_alt_rad > astro::kMoonriseAltitu
 // Everything about the array that does not depend on the target.
 struct ArrayContext {
   std::vector<astro::TelescopePair> pairs;
-  std::vector<astro::BaselineXyz> xyz;          // per pair
+  astro::BaselineArrays xyz;                    // per pair, structure of arrays
   std::vector<double> tel_limit_rad;            // per telescope: max(global, own)
+  std::vector<double> pair_limit_rad;           // per pair: the higher of its two telescopes' limits
   std::vector<double> area_m2;                  // per telescope
   std::vector<int> pair_class;                  // per pair: index into classes
   std::vector<std::pair<double, double>> classes;   // distinct (area_i, area_j)
@@ -73,6 +74,7 @@ ArrayContext make_array(const NightInputs& in) {
   }
   for (const auto& p : a.pairs) {
     a.xyz.push_back(astro::baseline_xyz(in.telescopes[std::size_t(p.i)], in.telescopes[std::size_t(p.j)], in.site.lat_rad));
+    a.pair_limit_rad.push_back(std::max(a.tel_limit_rad[std::size_t(p.i)], a.tel_limit_rad[std::size_t(p.j)]));
     std::pair<double, double> key{a.area_m2[std::size_t(p.i)], a.area_m2[std::size_t(p.j)]};
     auto it = std::find(a.classes.begin(), a.classes.end(), key);
     if (it == a.classes.end()) {
@@ -118,14 +120,15 @@ std::string settle_diameter(astro::Target& t) {
 }
 
 struct SlotGeometry {   // one target at the slot grid
-  std::vector<astro::Apparent> edge, mid;
+  std::vector<astro::Apparent> edge;
+  std::vector<astro::Apparent> mid;   // filled only for slots whose edges clear the altitude limit
 };
 
-SlotGeometry target_geometry(const std::vector<astro::Epoch>& edge_epochs, const std::vector<astro::Epoch>& mid_epochs,
-                             const astro::SkyPosition& pos) {
+// The star at every slot edge (one Epoch per instant, shared by all targets: geometry.md §2.4 fast path).
+SlotGeometry target_geometry(const std::vector<astro::Epoch>& edge_epochs, const astro::SkyPosition& pos) {
   SlotGeometry g;
   for (const auto& e : edge_epochs) g.edge.push_back(e.star(pos));
-  for (const auto& e : mid_epochs) g.mid.push_back(e.star(pos));
+  g.mid.resize(edge_epochs.empty() ? 0 : edge_epochs.size() - 1);
   return g;
 }
 
@@ -181,7 +184,7 @@ void process_target(const NightInputs& in, const NightGrid& grid, const ArrayCon
   slots.ra_rad = target.position.ra_rad;
   slots.dec_rad = target.position.dec_rad;
 
-  SlotGeometry g = target_geometry(edge_epochs, mid_epochs, target.position);
+  SlotGeometry g = target_geometry(edge_epochs, target.position);
   for (const auto& e : g.edge) {
     status.alt_edge_rad.push_back(e.alt_rad);
     status.max_alt_rad = std::max(status.max_alt_rad, e.alt_rad);
@@ -195,6 +198,9 @@ void process_target(const NightInputs& in, const NightGrid& grid, const ArrayCon
   int above = 0, moon_ok = 0, pairs_ok = 0;
   std::vector<std::uint8_t> sky_ok(std::size_t(n), 0);
   for (int k = 0; k < n; ++k) {
+    // Cheap rejection first: a slot with an edge below the limit needs neither the middle nor any pair.
+    if (std::min(g.edge[std::size_t(k)].alt_rad, g.edge[std::size_t(k) + 1].alt_rad) < c.min_altitude_rad) continue;
+    g.mid[std::size_t(k)] = mid_epochs[std::size_t(k)].star(target.position);
     if (slot_min_alt(g, k) < c.min_altitude_rad) continue;
     ++above;
     bool ok = true;
@@ -208,23 +214,29 @@ void process_target(const NightInputs& in, const NightGrid& grid, const ArrayCon
     sky_ok[std::size_t(k)] = 1;
   }
   const double lambda = in.instrument.lambda_m;
-  std::vector<double> grad(target.model.params().size());
+  const std::size_t np = arr.pairs.size();
+  std::vector<double> u(np), v(np), sigma(np);   // per slot: all pairs, then the usable ones packed in front
   for (int k = 0; k < n && has_flux && diameter_problem.empty(); ++k) {
     if (!sky_ok[std::size_t(k)]) continue;
     const double alt_min = slot_min_alt(g, k);
     const auto& mid = g.mid[std::size_t(k)];
     SlotNoise noise = slot_noise(in, arr, n_top, mid.airmass, sky_at(grid, k, mid, g.edge[std::size_t(k)], g.edge[std::size_t(k) + 1]), c.slot_s);
-    astro::DiameterFisher fisher(target.model);
-    bool any = false;
-    for (std::size_t p = 0; p < arr.pairs.size(); ++p) {
-      if (alt_min < arr.tel_limit_rad[std::size_t(arr.pairs[p].i)] || alt_min < arr.tel_limit_rad[std::size_t(arr.pairs[p].j)]) continue;
-      double sigma = noise.sigma_by_class[std::size_t(arr.pair_class[p])];
-      if (!(sigma > 0) || !std::isfinite(sigma)) continue;
-      astro::Uvw uvw = astro::uvw_from_xyz(arr.xyz[p], mid.ha_rad, mid.dec_rad);
-      fisher.add(uvw.u_m / lambda, uvw.v_m / lambda, sigma);
-      any = true;
+    // The trigonometry once per (target, slot), then a matrix-vector product per pair.
+    astro::project_uv(astro::UvwProjection(mid.ha_rad, mid.dec_rad), arr.xyz, u, v);
+    std::size_t m = 0;
+    for (std::size_t p = 0; p < np; ++p) {
+      if (alt_min < arr.pair_limit_rad[p]) continue;
+      const double s = noise.sigma_by_class[std::size_t(arr.pair_class[p])];
+      if (!(s > 0) || !std::isfinite(s)) continue;
+      u[m] = u[p] / lambda;
+      v[m] = v[p] / lambda;
+      sigma[m] = s;
+      ++m;
     }
-    if (!any) continue;
+    if (m == 0) continue;
+    astro::DiameterFisher fisher(target.model);
+    fisher.add_batch(std::span<const double>(u.data(), m), std::span<const double>(v.data(), m),
+                     std::span<const double>(sigma.data(), m));
     ++pairs_ok;
     slots.observable[std::size_t(k)] = 1;
     slots.f_tt[std::size_t(k)] = fisher.f_theta_theta();
@@ -346,15 +358,15 @@ BlockSamples block_samples(const NightInputs& in, const NightPlan& plan, const B
     s.moon_sep_rad.push_back(sky.moon_separation_rad);
     SlotNoise noise = slot_noise(in, arr, n_top, mid.airmass, sky, exposure > 0 ? exposure : plan.grid.slot_s);
     const double alt_min = std::min({a0.alt_rad, a1.alt_rad, mid.alt_rad});
+    const astro::UvwProjection projection(mid.ha_rad, mid.dec_rad);
     for (std::size_t p = 0; p < np; ++p) {
       const std::size_t idx = p * std::size_t(n) + std::size_t(k);
-      astro::Uvw uvw = astro::uvw_from_xyz(arr.xyz[p], mid.ha_rad, mid.dec_rad);
+      const astro::Uvw uvw = projection(astro::BaselineXyz{arr.xyz.x_m[p], arr.xyz.y_m[p], arr.xyz.z_m[p]});
       s.u_m[idx] = uvw.u_m;
       s.v_m[idx] = uvw.v_m;
       s.w_m[idx] = uvw.w_m;
       s.vis2[idx] = target.model.vis2(uvw.u_m / lambda, uvw.v_m / lambda);
-      bool ok = exposure > 0 && alt_min >= arr.tel_limit_rad[std::size_t(arr.pairs[p].i)] &&
-                alt_min >= arr.tel_limit_rad[std::size_t(arr.pairs[p].j)];
+      bool ok = exposure > 0 && alt_min >= arr.pair_limit_rad[p];
       double sigma = noise.sigma_by_class[std::size_t(arr.pair_class[p])];
       if (ok && sigma > 0 && std::isfinite(sigma)) {
         s.usable[idx] = 1;

@@ -11,7 +11,9 @@
 //       if the Moon is up (centre above -0 deg 50'): separation >= moon_min_separation_rad, and the slot
 //       is refused altogether when moonlit time is not allowed. A telescope pair is usable in a slot when
 //       the altitude also clears both telescopes' own limits;
-//     - per usable pair at the slot middle: (u,v,w) (astro::uvw_from_xyz), |V|^2 and d|V|^2/dtheta from
+//     - per usable pair at the slot middle: (u,v) (astro::UvwProjection built once per target and slot,
+//       then astro::project_uv over all pairs), |V|^2 and d|V|^2/dtheta (DiameterFisher::add_batch: the
+//       vectorised kernel of astro/disk_kernel.hpp for uniform and linear limb-darkened disks) from
 //       the target's model, sigma(|V|^2) for one slot of integration from the star's flux in the
 //       instrument's band after extinction at the slot's airmass and the Krisciunas & Schaefer sky
 //       (astro/sensitivity.hpp), accumulated into the Fisher information on (theta, c0)
