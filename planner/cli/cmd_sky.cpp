@@ -57,7 +57,7 @@ struct Events {
     for (auto& [t, what] : timed)
       out << "  " << what << std::string(what.size() < 34 ? 34 - what.size() : 1, ' ') << format_utc(t) << "  ("
           << local_hhmm(site, t) << " local)\n";
-    for (auto& s : statements) out << "  " << s << '\n';
+    for (const auto& s : statements) out << "  " << s << '\n';
   }
 };
 
@@ -183,8 +183,8 @@ const Register reg{Command{
     "moonset, and the Moon's illuminated fraction (Meeus eq. 48.1). A table follows with the Sun's and Moon's\n"
     "geometric altitude every --step-min minutes and, with a target, its altitude, airmass and distance from\n"
     "the Moon. Polar night and midnight sun are stated as such.\n\n"
-    "Example:\n  siiplan sky --site catalogs-demo/site.ini --night 2026-01-15 --ra 05:55:10.3 --dec +07:24:25 "
-    "--plot sky.svg",
+    "Example:\n  siiplan sky --site catalogs-demo/site.ini --night 2026-03-14 --target Kelvane \\\n"
+    "      --catalog catalogs-demo/targets.csv --plot sky.svg",
     {},
     [](po::options_description& desc) {
       add_site_option(desc);

@@ -212,7 +212,8 @@ const Register reg{Command{
     "(north through east), ha_h, airmass (Kasten & Young 1989), u_m, v_m, w_m, baseline_m, pa_deg, delay_ns,\n"
     "delay_rate_ns_per_s. The table form summarises each pair.\n\n"
     "Example:\n  siiplan tracks --site catalogs-demo/site.ini --array catalogs-demo/array-large.csv \\\n"
-    "      --ra 05:55:10.3 --dec +07:24:25 --night 2026-01-15 --plot tracks.svg",
+    "      --target Kelvane --catalog catalogs-demo/targets.csv --night 2026-03-14 --plot tracks.svg\n"
+    "  (or give the position directly: --ra 06:15:21.5 --dec -56:54:19.1)",
     {},
     [](po::options_description& desc) {
       add_site_option(desc);
