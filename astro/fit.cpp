@@ -461,7 +461,7 @@ FitResult fit_vis2(std::span<const Vis2Measurement> data, const FitOptions& opt)
     }() : prob.chi2_best_norm(f);
     if (std::isfinite(c)) {
       best.emplace_back(c, f);
-      std::sort(best.begin(), best.end(), [](auto& x, auto& y) { return x.first < y.first; });
+      std::sort(best.begin(), best.end(), [](const auto& x, const auto& y) { return x.first < y.first; });
       if (best.size() > kStarts) best.pop_back();
     }
     std::size_t a = 0;

@@ -121,7 +121,7 @@ CsvTable parse_csv(std::string_view text, std::string source) {
     if (table.header_.empty()) {
       for (auto& f : fields) {
         if (f.empty()) throw InputError(where, "the header has an empty column name", "name every column");
-        for (auto& g : table.header_)
+        for (const auto& g : table.header_)
           if (iequal(f, g)) throw InputError(where, "column '" + f + "' appears twice in the header", "remove one");
         table.header_.push_back(f);
       }

@@ -620,7 +620,7 @@ void write_targets(Writer& w, const Vis2Data& data) {
   long n = long(t.size());
   w.table("OI_TARGET", cols, n);
   std::vector<int> id;
-  std::vector<double> ra, dec, pmra, pmdec, zero(n, 0.0), nan(n, NAN), equinox(n, 2000.0);
+  std::vector<double> ra, dec, pmra, pmdec, nan(n, NAN), equinox(n, 2000.0);
   std::vector<std::string> category, veltyp(n, "UNKNOWN"), veldef(n, "OPTICAL"), spectyp(n, "UNKNOWN");
   for (const auto& x : t) {
     id.push_back(x.id);

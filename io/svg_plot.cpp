@@ -55,7 +55,7 @@ std::string Plot::render(int width, int height) const {
       xmin = std::min(xmin, s.x[i]); xmax = std::max(xmax, s.x[i]);
       ymin = std::min(ymin, s.y[i] - e); ymax = std::max(ymax, s.y[i] + e);
     }
-  for (auto& sh : shades) { xmin = std::min(xmin, sh.x0); xmax = std::max(xmax, sh.x1); }
+  for (const auto& sh : shades) { xmin = std::min(xmin, sh.x0); xmax = std::max(xmax, sh.x1); }
   if (!std::isfinite(xmin)) { xmin = 0; xmax = 1; }
   if (!std::isfinite(ymin)) { ymin = 0; ymax = 1; }
   if (x_min) xmin = *x_min;

@@ -283,7 +283,7 @@ std::vector<std::string> validate(const NightConstraints& c) {
   if (!(c.min_block_s >= 0 && c.min_block_s <= 86400)) out.push_back("min block = " + fmt("%g", c.min_block_s / 60) + " min; must lie within 0 .. 1440");
   if (!(c.slew_deg_per_s > 0)) out.push_back("slew rate = " + fmt("%g", c.slew_deg_per_s) + " deg/s; must be > 0");
   if (!(c.setup_s >= 0 && c.setup_s <= 7200)) out.push_back("setup = " + fmt("%g", c.setup_s / 60) + " min; must lie within 0 .. 120");
-  if (!(c.fixed_slew_s < 0 || c.fixed_slew_s <= 7200)) out.push_back("fixed slew = " + fmt("%g", c.fixed_slew_s) + " s; must be <= 7200");
+  if (!(c.fixed_slew_s <= 7200)) /* negative = not set; NaN fails */ out.push_back("fixed slew = " + fmt("%g", c.fixed_slew_s) + " s; must be <= 7200");
   return out;
 }
 

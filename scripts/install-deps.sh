@@ -9,6 +9,8 @@ packages=(
   libbenchmark-dev
   # outside references and output checks used by tests and scripts/
   python3 python3-numpy python3-scipy python3-astropy python3-h5py python3-mpmath hdf5-tools fitsverify
+  # fuzzing and static analysis (scripts/fuzz.sh, scripts/lint.sh)
+  clang cppcheck
 )
 
 missing=()

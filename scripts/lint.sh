@@ -13,8 +13,6 @@ if [ ! -f "$build/compile_commands.json" ]; then
 fi
 mkdir -p "$build/cppcheck"
 cppcheck --project="$build/compile_commands.json" \
-         --file-filter="$PWD/astro/*" --file-filter="$PWD/io/*" --file-filter="$PWD/planner/*" \
-         --file-filter="$PWD/tests/*" \
          --enable=warning,style,performance,portability --std=c++20 --inline-suppr \
          --suppressions-list=scripts/cppcheck.supp --cppcheck-build-dir="$build/cppcheck" \
          -j "$(nproc 2>/dev/null || echo 2)" --error-exitcode=1 --quiet \

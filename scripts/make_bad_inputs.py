@@ -12,6 +12,11 @@ Writes into tests/data/bad/ (and the fuzz seeds into tests/fuzz/corpus/fuzz_*/):
   site-*.ini, array-*.csv, instrument-*.ini, catalog-*.csv, catalog-*.fits, vis2-*.csv, oifits-*.fits,
   corr-*.h5, plan-*.h5 (see the table CASES below and the functions for binary files).
 
+The plan.h5 seed (tests/fuzz/corpus/fuzz_plan_h5/plan.h5) is not written here: it is the plan.h5 of
+  siiplan night --site catalogs-demo/site.ini --array catalogs-demo/array-small.csv
+      --instrument catalogs-demo/instrument-small.ini --date 2026-03-14 --catalog catalogs-demo/targets.csv
+so that the fuzzer starts from a complete plan.
+
 Run: /usr/bin/python3 scripts/make_bad_inputs.py   (deterministic: same bytes every run)
 """
 import io
@@ -288,7 +293,7 @@ def main():
         write(name, data)
     fits_catalog = catalog_fits_files()
     oifits = oifits_files()
-    corr, plan = hdf5_files()
+    corr, _ = hdf5_files()
     # Fuzz seeds: one valid file per reader (small), plus a CRLF variant for the text readers.
     seed("fuzz_site", "site.ini", SITE)
     seed("fuzz_site", "site-crlf.ini", crlf(SITE))
@@ -310,7 +315,6 @@ def main():
     with open(os.path.join(ROOT, "tests", "data", "astropy_v1.oifits"), "rb") as f:
         seed("fuzz_oifits", "v1.oifits", f.read())
     seed("fuzz_correlation_h5", "corr.h5", corr)
-    seed("fuzz_plan_h5", "plan.h5", plan)
 
 
 if __name__ == "__main__":

@@ -22,7 +22,7 @@ const Command* find_command(const std::string& name) {
 
 void print_overview(std::ostream& out) {
   auto commands = registry();
-  std::sort(commands.begin(), commands.end(), [](auto& a, auto& b) { return a.name < b.name; });
+  std::sort(commands.begin(), commands.end(), [](const auto& a, const auto& b) { return a.name < b.name; });
   out << "siiplan " << SIIPLAN_VERSION
       << " - plan, simulate and reduce stellar intensity interferometry observations\n\n"
          "Usage: siiplan COMMAND [options]\n"

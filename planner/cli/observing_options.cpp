@@ -63,7 +63,7 @@ astro::Target load_target(const po::variables_map& vm) {
   if (by_name) {
     std::string name = vm["target"].as<std::string>();
     if (!vm.count("catalog")) throw InputError("--target", "needs --catalog FILE to look the name up in", hint);
-    for (auto& t : load_catalog(vm))
+    for (const auto& t : load_catalog(vm))
       if (t.name == name) return t;
     throw InputError("--target", "'" + name + "' is not in " + vm["catalog"].as<std::string>(),
                      "names are matched exactly, including case");
