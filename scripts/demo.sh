@@ -16,3 +16,13 @@ for arr in large small; do
     --catalog "$demo/targets.csv" --date 2026-03-14 --out "demo-out/night-$arr" > "demo-out/night-$arr.txt"
   echo "Night plan ($arr array): demo-out/night-$arr/report.html (summary in demo-out/night-$arr.txt)"
 done
+
+# Optional: the whole chain on the large-array plan: simulate (with faults) -> reduce -> fit.
+if [ "${DEMO_CHAIN:-0}" = 1 ]; then
+  "$bin" simulate demo-out/night-large/plan.h5 --seed 1 --timing-offset Birch:8 --cloud 120:135:0.1 \
+    --drop-telescope Elm:200:230 -o demo-out/corr-large.h5
+  "$bin" reduce demo-out/corr-large.h5 -o demo-out/vis2-large.oifits --csv demo-out/vis2-large.csv \
+    > demo-out/reduce-large.txt
+  "$bin" fit demo-out/vis2-large.oifits --target Kelvane > demo-out/fit-kelvane.txt
+  echo "Simulated and reduced night: demo-out/reduce-large.txt; fit of Kelvane: demo-out/fit-kelvane.txt"
+fi
