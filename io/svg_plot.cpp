@@ -164,10 +164,18 @@ std::string Plot::render(int width, int height) const {
     }
   }
   o << "</g>\n";
+  // Legend in the top-right corner on a white box wide enough for the longest label (~6 px a character).
+  std::size_t longest = 0;
+  for (const auto& entry : legend) longest = std::max(longest, entry.first.size());
+  const double legend_w = 24 + 6.0 * double(longest);
+  const double lx = std::max(left, left + pw - legend_w - 6);
+  if (!legend.empty())
+    o << "<rect x=\"" << fmt(lx - 4) << "\" y=\"" << fmt(top + 3) << "\" width=\"" << fmt(legend_w + 4)
+      << "\" height=\"" << fmt(16.0 * double(legend.size()) + 6) << "\" fill=\"white\" opacity=\"0.85\"/>\n";
   for (std::size_t i = 0; i < legend.size(); ++i) {
     double ly = top + 8 + 16 * double(i);
-    o << "<rect x=\"" << left + pw - 150 << "\" y=\"" << fmt(ly) << "\" width=\"12\" height=\"4\" fill=\""
-      << legend[i].second << "\"/><text x=\"" << left + pw - 134 << "\" y=\"" << fmt(ly + 6) << "\" font-size=\"11\">"
+    o << "<rect x=\"" << fmt(lx) << "\" y=\"" << fmt(ly) << "\" width=\"12\" height=\"4\" fill=\"" << legend[i].second
+      << "\"/><text x=\"" << fmt(lx + 16) << "\" y=\"" << fmt(ly + 6) << "\" font-size=\"11\">"
       << xml_escape(legend[i].first) << "</text>\n";
   }
   o << "</svg>\n";

@@ -316,7 +316,11 @@ std::string night_report_html(const NightInputs& in, const NightPlan& plan, cons
       << fmt("%.3f", tg.model.diameter_rad() * astro::kRadToMas) << " mas"
       << (tg.diameter_estimated ? " (" + esc(tg.diameter_note) + ")" : "") << "; priority " << fmt("%g", tg.priority) << ", goal "
       << fmt("%g", 100 * tg.goal_fraction) << "%; predicted &sigma;&theta;/&theta; = " << fmt("%.2f", pct(ev.sigma_fraction[std::size_t(t)]))
-      << "% (simple schedule: " << fmt("%.2f", pct(plan.result.baseline.sigma_fraction[std::size_t(t)])) << "%). Flux from "
+      << "% (simple schedule: "
+      << (std::isfinite(plan.result.baseline.sigma_fraction[std::size_t(t)])
+              ? fmt("%.2f", pct(plan.result.baseline.sigma_fraction[std::size_t(t)])) + "%"
+              : std::string("not observed"))
+      << "). Flux from "
       << esc(plan.status[std::size_t(t)].flux_note) << ".</p>\n";
     io::Plot uv, curve;
     uv.title = "(u,v) coverage";
