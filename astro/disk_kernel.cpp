@@ -196,31 +196,34 @@ template <DiskLaw kLaw, bool kDeriv>
 // The element loops, cloned per instruction set (chosen once at load time by the CPU's features).
 #define SIIPLAN_KERNEL_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))
 
-// in[k] * scale = x; out_d[k] = x d|V|^2/dx * dscale.
+// x = scale * sqrt(u^2 + v^2), or x = scale * u when v is null; out_d[k] = x d|V|^2/dx * dscale.
 template <DiskLaw kLaw, bool kDeriv>
-[[gnu::always_inline]] inline void disk_loop(const double* in, std::size_t n, double scale, double limb_u, double dscale,
-                                             double* out_v, double* out_d) {
+[[gnu::always_inline]] inline void disk_loop(const double* u, const double* v, std::size_t n, double scale, double limb_u,
+                                             double dscale, double* out_v, double* out_d) {
   const double inv_den = 1.0 / ((1.0 - limb_u) / 2.0 + limb_u / 3.0);
   for (std::size_t k = 0; k < n; ++k) {
     double v2, xd = 0;
-    disk_point<kLaw, kDeriv>(in[k] * scale, limb_u, inv_den, v2, xd);
+    const double q = v ? std::sqrt(u[k] * u[k] + v[k] * v[k]) : u[k];
+    disk_point<kLaw, kDeriv>(q * scale, limb_u, inv_den, v2, xd);
     out_v[k] = v2;
     if constexpr (kDeriv) out_d[k] = xd * dscale;
   }
 }
 
-SIIPLAN_KERNEL_CLONES void ud_loop(const double* in, std::size_t n, double scale, double dscale, double* v, double* d) {
-  disk_loop<DiskLaw::Uniform, true>(in, n, scale, 0.0, dscale, v, d);
+SIIPLAN_KERNEL_CLONES void ud_loop(const double* u, const double* v, std::size_t n, double scale, double dscale,
+                                   double* out_v, double* out_d) {
+  disk_loop<DiskLaw::Uniform, true>(u, v, n, scale, 0.0, dscale, out_v, out_d);
 }
-SIIPLAN_KERNEL_CLONES void ud_loop_value(const double* in, std::size_t n, double scale, double* v) {
-  disk_loop<DiskLaw::Uniform, false>(in, n, scale, 0.0, 1.0, v, nullptr);
+SIIPLAN_KERNEL_CLONES void ud_loop_value(const double* u, const double* v, std::size_t n, double scale, double* out_v) {
+  disk_loop<DiskLaw::Uniform, false>(u, v, n, scale, 0.0, 1.0, out_v, nullptr);
 }
-SIIPLAN_KERNEL_CLONES void ld_loop(const double* in, std::size_t n, double scale, double limb_u, double dscale, double* v,
-                                   double* d) {
-  disk_loop<DiskLaw::LinearLimbDarkened, true>(in, n, scale, limb_u, dscale, v, d);
+SIIPLAN_KERNEL_CLONES void ld_loop(const double* u, const double* v, std::size_t n, double scale, double limb_u,
+                                   double dscale, double* out_v, double* out_d) {
+  disk_loop<DiskLaw::LinearLimbDarkened, true>(u, v, n, scale, limb_u, dscale, out_v, out_d);
 }
-SIIPLAN_KERNEL_CLONES void ld_loop_value(const double* in, std::size_t n, double scale, double limb_u, double* v) {
-  disk_loop<DiskLaw::LinearLimbDarkened, false>(in, n, scale, limb_u, 1.0, v, nullptr);
+SIIPLAN_KERNEL_CLONES void ld_loop_value(const double* u, const double* v, std::size_t n, double scale, double limb_u,
+                                         double* out_v) {
+  disk_loop<DiskLaw::LinearLimbDarkened, false>(u, v, n, scale, limb_u, 1.0, out_v, nullptr);
 }
 SIIPLAN_KERNEL_CLONES void j1_loop(const double* x, std::size_t n, double* out) {
   for (std::size_t k = 0; k < n; ++k) {
@@ -229,29 +232,28 @@ SIIPLAN_KERNEL_CLONES void j1_loop(const double* x, std::size_t n, double* out) 
   }
 }
 
-void run(DiskLaw law, std::span<const double> in, double scale, double limb_u, double dscale, std::span<double> vis2,
-         std::span<double> deriv) {
-  const std::size_t n = in.size();
+void run(DiskLaw law, const double* u, const double* v, std::size_t n, double scale, double limb_u, double dscale,
+         std::span<double> vis2, std::span<double> deriv) {
   if (law == DiskLaw::Uniform) {
-    if (deriv.empty()) ud_loop_value(in.data(), n, scale, vis2.data());
-    else ud_loop(in.data(), n, scale, dscale, vis2.data(), deriv.data());
+    if (deriv.empty()) ud_loop_value(u, v, n, scale, vis2.data());
+    else ud_loop(u, v, n, scale, dscale, vis2.data(), deriv.data());
   } else {
-    if (deriv.empty()) ld_loop_value(in.data(), n, scale, limb_u, vis2.data());
-    else ld_loop(in.data(), n, scale, limb_u, dscale, vis2.data(), deriv.data());
+    if (deriv.empty()) ld_loop_value(u, v, n, scale, limb_u, vis2.data());
+    else ld_loop(u, v, n, scale, limb_u, dscale, vis2.data(), deriv.data());
   }
 }
 
 }  // namespace
 
-void disk_vis2(DiskLaw law, double theta_rad, double limb_u, std::span<const double> q_lambda, std::span<double> vis2,
-               std::span<double> dvis2_dtheta) {
-  // x = pi theta q; d|V|^2/dtheta = (x d|V|^2/dx) / theta.
-  run(law, q_lambda, kPi * theta_rad, limb_u, 1.0 / theta_rad, vis2, dvis2_dtheta);
+void disk_vis2(DiskLaw law, double theta_rad, double limb_u, std::span<const double> u_lambda,
+               std::span<const double> v_lambda, std::span<double> vis2, std::span<double> dvis2_dtheta) {
+  // x = pi theta sqrt(u^2 + v^2); d|V|^2/dtheta = (x d|V|^2/dx) / theta.
+  run(law, u_lambda.data(), v_lambda.data(), u_lambda.size(), kPi * theta_rad, limb_u, 1.0 / theta_rad, vis2, dvis2_dtheta);
 }
 
 void disk_vis2_x(DiskLaw law, double limb_u, std::span<const double> x, std::span<double> vis2,
                  std::span<double> x_dvis2_dx) {
-  run(law, x, 1.0, limb_u, 1.0, vis2, x_dvis2_dx);
+  run(law, x.data(), nullptr, x.size(), 1.0, limb_u, 1.0, vis2, x_dvis2_dx);
 }
 
 void bessel_j1_array(std::span<const double> x, std::span<double> j1) { j1_loop(x.data(), x.size(), j1.data()); }

@@ -40,11 +40,12 @@ enum class DiskLaw { Uniform, LinearLimbDarkened };
 // Given:    law           uniform disk, or linear limb darkening with coefficient limb_u in [0, 1]
 //           theta_rad     disk diameter (> 0); for the LD law the limb-darkened diameter
 //           limb_u        linear limb-darkening coefficient (ignored for the uniform disk)
-//           q_lambda      projected baselines in wavelengths, >= 0 and < 1e6 / (pi theta)
-// Returned: vis2          |V|^2 (same size as q_lambda)
+//           u_lambda, v_lambda  projected baselines in wavelengths (equal sizes), with
+//                         pi theta sqrt(u^2 + v^2) < 1e6
+// Returned: vis2          |V|^2 (same size)
 //           dvis2_dtheta  d|V|^2/dtheta in 1/rad (same size, or empty: then it is not computed)
-void disk_vis2(DiskLaw law, double theta_rad, double limb_u, std::span<const double> q_lambda, std::span<double> vis2,
-               std::span<double> dvis2_dtheta);
+void disk_vis2(DiskLaw law, double theta_rad, double limb_u, std::span<const double> u_lambda,
+               std::span<const double> v_lambda, std::span<double> vis2, std::span<double> dvis2_dtheta);
 
 // The same as a function of x = pi theta q directly: vis2[k] = |V(x[k])|^2 and, when x_dvis2_dx is not
 // empty, x_dvis2_dx[k] = x d|V|^2/dx = theta d|V|^2/dtheta (dimensionless). For benchmarks and tests.
@@ -56,6 +57,6 @@ void disk_vis2_x(DiskLaw law, double limb_u, std::span<const double> x, std::spa
 void bessel_j1_array(std::span<const double> x, std::span<double> j1);
 // Multiply-adds (FMA or multiply) in one evaluation of bessel_j1_array's J1, counted in the source: the
 // benchmark's floor runs this many dependent-free multiply-adds per element.
-inline constexpr int kBesselJ1MultiplyAdds = 68;
+inline constexpr int kBesselJ1MultiplyAdds = 76;   // sin/cos 23, the two Cephes branches 52, x J1/x 1
 
 }  // namespace siiplan::astro

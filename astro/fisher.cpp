@@ -43,16 +43,13 @@ void DiameterFisher::add_batch(std::span<const double> u_lambda, std::span<const
   const DiskLaw law = kind == ModelKind::UniformDisk ? DiskLaw::Uniform : DiskLaw::LinearLimbDarkened;
   const double limb_u = kind == ModelKind::LinearLD ? model_.params()[1] : 0.0;
   constexpr std::size_t kChunk = 256;   // stack scratch; the kernel vectorises within a chunk
-  std::array<double, kChunk> q, v2, g;
+  std::array<double, kChunk> v2, g;
   for (std::size_t start = 0; start < u_lambda.size(); start += kChunk) {
     const std::size_t n = std::min(kChunk, u_lambda.size() - start);
+    disk_vis2(law, model_.diameter_rad(), limb_u, u_lambda.subspan(start, n), v_lambda.subspan(start, n),
+              std::span<double>(v2.data(), n), std::span<double>(g.data(), n));
     for (std::size_t k = 0; k < n; ++k)
-      q[k] = std::sqrt(u_lambda[start + k] * u_lambda[start + k] + v_lambda[start + k] * v_lambda[start + k]);
-    disk_vis2(law, model_.diameter_rad(), limb_u, std::span<const double>(q.data(), n), std::span<double>(v2.data(), n),
-              std::span<double>(g.data(), n));
-    for (std::size_t k = 0; k < n; ++k) {
       if (informative(sigma_vis2[start + k])) accumulate(g[k], v2[k], sigma_vis2[start + k], ftt_, ftc_, fcc_);
-    }
   }
 }
 
