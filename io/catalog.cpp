@@ -57,7 +57,8 @@ std::optional<Sexagesimal> split_sexagesimal(std::string_view text, bool& malfor
     return std::nullopt;
   }
   auto whole = [&](const std::string& p, int& v) {
-    if (p.empty() || p.find_first_not_of("0123456789") != std::string::npos) return false;
+    // at most 9 digits, so that std::stoi cannot overflow (fuzzing found "11111111111111111111:23:57")
+    if (p.empty() || p.size() > 9 || p.find_first_not_of("0123456789") != std::string::npos) return false;
     v = std::stoi(p);
     return true;
   };

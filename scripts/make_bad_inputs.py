@@ -129,6 +129,8 @@ CASES = {
     "catalog-negative-priority.csv": CATALOG.replace("6.0,2", "6.0,-2"),
     "catalog-unknown-model.csv": CATALOG.replace("priority\n", "priority,model\n")
                                         .replace(",1\n", ",1,ud\n").replace(",2\n", ",2,donut\n"),
+    # found by fuzz_catalog: a sexagesimal field too long for an int (was std::out_of_range, exit 1)
+    "catalog-ra-huge-hours.csv": CATALOG.replace("06:23:57.1", "1" * 40 + "06:23:57.1"),
     "catalog-ok-extra-column.csv": CATALOG.replace("priority\n", "priority,spectral_type\n")
                                           .replace(",1\n", ",1,K2III\n").replace(",2\n", ",2,A9II\n"),
     "catalog-ok-crlf.csv": crlf(CATALOG),

@@ -97,6 +97,7 @@ bad_catalog(inf ${BAD}/catalog-inf-mag.csv "catalog-inf-mag.csv:2: column 'mag_v
 bad_catalog(zero_diameter ${BAD}/catalog-zero-diameter.csv "catalog-zero-diameter.csv:2: .*out of range \\(it must be greater than 0\\)")
 bad_catalog(negative_priority ${BAD}/catalog-negative-priority.csv "catalog-negative-priority.csv:3: priority must be greater than 0")
 bad_catalog(unknown_model ${BAD}/catalog-unknown-model.csv "catalog-unknown-model.csv:3: unknown model 'donut' \\(use one of ud,")
+bad_catalog(ra_huge_hours ${BAD}/catalog-ra-huge-hours.csv "catalog-ra-huge-hours.csv:3: column 'ra': RA '1111.*' is not an angle")
 bad_catalog(non_utf8 ${BAD}/catalog-non-utf8.csv "catalog-non-utf8.csv:3: byte 2 of the line is not valid UTF-8")
 bad_catalog(fits_not_fits ${BAD}/not-fits.fits "not-fits.fits: cannot read as FITS")
 bad_catalog(fits_truncated ${BAD}/catalog-truncated.fits "catalog-truncated.fits.TARGETS. row 1: .*FITS")
@@ -179,6 +180,7 @@ bad_option(start_before_utc "--start: .1959-12-31. lies before 1960"
 bad_option(date_year_5_digits "--night: '10000-01-01' is not a date" ${BAD_TRACKS} ${BAD_STAR} --night 10000-01-01)
 bad_option(dec_range "--dec: Dec '91' is beyond" ${BAD_TRACKS} --ra 05:55:10.3 --dec 91 ${BAD_NIGHT})
 bad_option(ra_nan "--ra: RA 'nan' is not an angle" ${BAD_TRACKS} --ra nan --dec 10 ${BAD_NIGHT})
+bad_option(dec_huge_degrees "--dec: Dec '-99999999999:00:00' is not an angle" ${BAD_TRACKS} --ra 10 --dec -99999999999:00:00 ${BAD_NIGHT})
 bad_option(diameter_nan "--diameter-mas: 'nan' is not a finite number"
            curve --model ud --diameter-mas nan --wavelength-nm 450 --baselines-m 0:10:1)
 bad_option(wavelength_inf "--wavelength-nm: 'inf' is not a finite number"
