@@ -196,35 +196,37 @@ template <DiskLaw kLaw, bool kDeriv>
 // The element loops, cloned per instruction set (chosen once at load time by the CPU's features).
 #define SIIPLAN_KERNEL_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))
 
-// x = scale * sqrt(u^2 + v^2), or x = scale * u when v is null; out_d[k] = x d|V|^2/dx * dscale.
-template <DiskLaw kLaw, bool kDeriv>
+// x = scale * sqrt(u^2 + v^2) (kUv), or x = scale * u; out_d[k] = x d|V|^2/dx * dscale.
+template <DiskLaw kLaw, bool kDeriv, bool kUv>
 [[gnu::always_inline]] inline void disk_loop(const double* u, const double* v, std::size_t n, double scale, double limb_u,
                                              double dscale, double* out_v, double* out_d) {
   const double inv_den = 1.0 / ((1.0 - limb_u) / 2.0 + limb_u / 3.0);
   for (std::size_t k = 0; k < n; ++k) {
     double v2, xd = 0;
-    const double q = v ? std::sqrt(u[k] * u[k] + v[k] * v[k]) : u[k];
+    double q = u[k];
+    if constexpr (kUv) q = std::sqrt(u[k] * u[k] + v[k] * v[k]);
     disk_point<kLaw, kDeriv>(q * scale, limb_u, inv_den, v2, xd);
     out_v[k] = v2;
     if constexpr (kDeriv) out_d[k] = xd * dscale;
   }
 }
 
-SIIPLAN_KERNEL_CLONES void ud_loop(const double* u, const double* v, std::size_t n, double scale, double dscale,
-                                   double* out_v, double* out_d) {
-  disk_loop<DiskLaw::Uniform, true>(u, v, n, scale, 0.0, dscale, out_v, out_d);
-}
-SIIPLAN_KERNEL_CLONES void ud_loop_value(const double* u, const double* v, std::size_t n, double scale, double* out_v) {
-  disk_loop<DiskLaw::Uniform, false>(u, v, n, scale, 0.0, 1.0, out_v, nullptr);
-}
-SIIPLAN_KERNEL_CLONES void ld_loop(const double* u, const double* v, std::size_t n, double scale, double limb_u,
-                                   double dscale, double* out_v, double* out_d) {
-  disk_loop<DiskLaw::LinearLimbDarkened, true>(u, v, n, scale, limb_u, dscale, out_v, out_d);
-}
-SIIPLAN_KERNEL_CLONES void ld_loop_value(const double* u, const double* v, std::size_t n, double scale, double limb_u,
-                                         double* out_v) {
-  disk_loop<DiskLaw::LinearLimbDarkened, false>(u, v, n, scale, limb_u, 1.0, out_v, nullptr);
-}
+// One clone set per (law, derivative or not, input (u,v) or x).
+#define SIIPLAN_DISK_LOOP(name, law, deriv, uv)                                                                          \
+  SIIPLAN_KERNEL_CLONES void name(const double* u, const double* v, std::size_t n, double scale, double limb_u,          \
+                                  double dscale, double* out_v, double* out_d) {                                          \
+    disk_loop<law, deriv, uv>(u, v, n, scale, limb_u, dscale, out_v, out_d);                                             \
+  }
+SIIPLAN_DISK_LOOP(ud_uv, DiskLaw::Uniform, true, true)
+SIIPLAN_DISK_LOOP(ud_uv_value, DiskLaw::Uniform, false, true)
+SIIPLAN_DISK_LOOP(ld_uv, DiskLaw::LinearLimbDarkened, true, true)
+SIIPLAN_DISK_LOOP(ld_uv_value, DiskLaw::LinearLimbDarkened, false, true)
+SIIPLAN_DISK_LOOP(ud_x, DiskLaw::Uniform, true, false)
+SIIPLAN_DISK_LOOP(ud_x_value, DiskLaw::Uniform, false, false)
+SIIPLAN_DISK_LOOP(ld_x, DiskLaw::LinearLimbDarkened, true, false)
+SIIPLAN_DISK_LOOP(ld_x_value, DiskLaw::LinearLimbDarkened, false, false)
+#undef SIIPLAN_DISK_LOOP
+
 SIIPLAN_KERNEL_CLONES void j1_loop(const double* x, std::size_t n, double* out) {
   for (std::size_t k = 0; k < n; ++k) {
     const double r = 1.0 / (x[k] > kSeriesBelow ? x[k] : kSeriesBelow);
@@ -234,13 +236,12 @@ SIIPLAN_KERNEL_CLONES void j1_loop(const double* x, std::size_t n, double* out) 
 
 void run(DiskLaw law, const double* u, const double* v, std::size_t n, double scale, double limb_u, double dscale,
          std::span<double> vis2, std::span<double> deriv) {
-  if (law == DiskLaw::Uniform) {
-    if (deriv.empty()) ud_loop_value(u, v, n, scale, vis2.data());
-    else ud_loop(u, v, n, scale, dscale, vis2.data(), deriv.data());
-  } else {
-    if (deriv.empty()) ld_loop_value(u, v, n, scale, limb_u, vis2.data());
-    else ld_loop(u, v, n, scale, limb_u, dscale, vis2.data(), deriv.data());
-  }
+  using Loop = void (*)(const double*, const double*, std::size_t, double, double, double, double*, double*);
+  // [law][derivative][input is (u,v)]
+  static constexpr Loop kLoops[2][2][2] = {{{ud_x_value, ud_uv_value}, {ud_x, ud_uv}},
+                                           {{ld_x_value, ld_uv_value}, {ld_x, ld_uv}}};
+  kLoops[law == DiskLaw::Uniform ? 0 : 1][deriv.empty() ? 0 : 1][v ? 1 : 0](u, v, n, scale, limb_u, dscale, vis2.data(),
+                                                                              deriv.data());
 }
 
 }  // namespace
