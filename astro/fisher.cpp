@@ -43,14 +43,20 @@ void DiameterFisher::add_batch(std::span<const double> u_lambda, std::span<const
   const DiskLaw law = kind == ModelKind::UniformDisk ? DiskLaw::Uniform : DiskLaw::LinearLimbDarkened;
   const double limb_u = kind == ModelKind::LinearLD ? model_.params()[1] : 0.0;
   constexpr std::size_t kChunk = 256;   // stack scratch; the kernel vectorises within a chunk
+  constexpr std::size_t kLanes = 4;     // independent partial sums (a fixed order: same result on every run)
   std::array<double, kChunk> v2, g;
+  std::array<double, kLanes> tt{}, tc{}, cc{};
   for (std::size_t start = 0; start < u_lambda.size(); start += kChunk) {
     const std::size_t n = std::min(kChunk, u_lambda.size() - start);
     disk_vis2(law, model_.diameter_rad(), limb_u, u_lambda.subspan(start, n), v_lambda.subspan(start, n),
               std::span<double>(v2.data(), n), std::span<double>(g.data(), n));
     for (std::size_t k = 0; k < n; ++k)
-      if (informative(sigma_vis2[start + k])) accumulate(g[k], v2[k], sigma_vis2[start + k], ftt_, ftc_, fcc_);
+      if (informative(sigma_vis2[start + k]))
+        accumulate(g[k], v2[k], sigma_vis2[start + k], tt[k % kLanes], tc[k % kLanes], cc[k % kLanes]);
   }
+  ftt_ += (tt[0] + tt[1]) + (tt[2] + tt[3]);
+  ftc_ += (tc[0] + tc[1]) + (tc[2] + tc[3]);
+  fcc_ += (cc[0] + cc[1]) + (cc[2] + cc[3]);
 }
 
 void DiameterFisher::merge(const DiameterFisher& other) {
