@@ -110,9 +110,11 @@ struct SinCos {
   const double sr = r + r * r2 * horner(r2, kSin.c);
   const double cr = 1.0 + r2 * horner(r2, kCos.c);
   const double m = n - 4.0 * ((0.25 * n + kRound) - kRound);   // n mod 4, in {-2, -1, 0, 1, 2}
-  const bool odd = m == 1.0 || m == -1.0;
+  // Bitwise | rather than ||: no short-circuit branch, so the loops if-convert without AVX-512 masks too.
+  const bool odd = std::fabs(m) == 1.0;
   const double a = odd ? cr : sr, b = odd ? sr : cr;
-  return {(m < 0.0 || m > 1.5) ? -a : a, (m > 0.5 || m < -1.5) ? -b : b};
+  const double sign_s = ((m < 0.0) | (m > 1.5)) ? -1.0 : 1.0, sign_c = ((m > 0.5) | (m < -1.5)) ? -1.0 : 1.0;
+  return {sign_s * a, sign_c * b};
 }
 
 // Power series of Lambda_nu(x)/scale in z = x^2 (DLMF 10.2.2 divided by its first term, models.md §1.0):
@@ -149,15 +151,20 @@ template <bool kJ0>
   // J1/x. Large: sqrt(2/(pi x)) [P cos(x - 3pi/4) - w Q sin(x - 3pi/4)] / x with
   // cos(x - 3pi/4) = (sin x - cos x)/sqrt2, sin(x - 3pi/4) = -(sin x + cos x)/sqrt2.
   const double pp1 = horner(s, kPP1), pq1 = horner(s, kPQ1), qp1 = horner(s, kQP1), qq1 = horner(s, kQQ1);
-  const double n1 = small ? (zs - kZ1) * (zs - kZ2) * horner(zs, kRP1) : amp * r * (pp1 * qq1 * smc + w * qp1 * pq1 * spc);
-  const double d1 = small ? horner(zs, kRQ1) : pq1 * qq1;
+  // Both branches are computed and one is selected. The file is compiled with -fno-trapping-math, which
+  // lets the compiler evaluate both unconditionally; otherwise only the AVX-512 clone (masked
+  // instructions) vectorises.
+  const double n1_small = (zs - kZ1) * (zs - kZ2) * horner(zs, kRP1), d1_small = horner(zs, kRQ1);
+  const double n1_large = amp * r * (pp1 * qq1 * smc + w * qp1 * pq1 * spc), d1_large = pq1 * qq1;
+  const double n1 = small ? n1_small : n1_large, d1 = small ? d1_small : d1_large;
   if constexpr (!kJ0) {
     return {n1 / d1, 0.0};
   } else {
     // J0. Large: cos(x - pi/4) = (cos x + sin x)/sqrt2, sin(x - pi/4) = (sin x - cos x)/sqrt2.
     const double pp0 = horner(s, kPP0), pq0 = horner(s, kPQ0), qp0 = horner(s, kQP0), qq0 = horner(s, kQQ0);
-    const double n0 = small ? (zs - kDR1) * (zs - kDR2) * horner(zs, kRP0) : amp * (pp0 * qq0 * spc - w * qp0 * pq0 * smc);
-    const double d0 = small ? horner(zs, kRQ0) : pq0 * qq0;
+    const double n0_small = (zs - kDR1) * (zs - kDR2) * horner(zs, kRP0), d0_small = horner(zs, kRQ0);
+    const double n0_large = amp * (pp0 * qq0 * spc - w * qp0 * pq0 * smc), d0_large = pq0 * qq0;
+    const double n0 = small ? n0_small : n0_large, d0 = small ? d0_small : d0_large;
     const double inv = 1.0 / (d1 * d0);
     return {n1 * d0 * inv, n0 * d1 * inv};
   }
@@ -176,16 +183,18 @@ template <DiskLaw kLaw, bool kDeriv>
   if constexpr (kLaw == DiskLaw::Uniform) {
     v = 2.0 * j.j1_over_x;                                                      // models.md §1.1
     if constexpr (kDeriv) {
-      const double j2x2 = series ? horner(z, kJ2OverX2.c) : (2.0 * j.j1_over_x - j.j0) * r * r;   // DLMF 10.6.1
-      x_dv_dx = -2.0 * z * j2x2;                                                // x dV/dx = -2 J2(x)
+      const double j2x2_series = horner(z, kJ2OverX2.c), j2x2_closed = (2.0 * j.j1_over_x - j.j0) * r * r;   // DLMF 10.6.1
+      x_dv_dx = -2.0 * z * (series ? j2x2_series : j2x2_closed);               // x dV/dx = -2 J2(x)
     }
   } else {
-    const double sinc3 = series ? horner(z, kSinc3.c) : (sc.s - x * sc.c) * r * r * r;
+    const double sinc3_series = horner(z, kSinc3.c), sinc3_closed = (sc.s - x * sc.c) * r * r * r;
+    const double sinc3 = series ? sinc3_series : sinc3_closed;
     v = ((1.0 - limb_u) * j.j1_over_x + limb_u * sinc3) * inv_den;             // models.md §1.2
     if constexpr (kDeriv) {
-      const double j2x2 = series ? horner(z, kJ2OverX2.c) : (2.0 * j.j1_over_x - j.j0) * r * r;
-      const double sinc5 =
-          series ? horner(z, kSinc5.c) : (3.0 * (sc.s - x * sc.c) - z * sc.s) * (r * r) * (r * r) * r;
+      const double j2x2_series = horner(z, kJ2OverX2.c), j2x2_closed = (2.0 * j.j1_over_x - j.j0) * r * r;
+      const double sinc5_series = horner(z, kSinc5.c);
+      const double sinc5_closed = (3.0 * (sc.s - x * sc.c) - z * sc.s) * (r * r) * (r * r) * r;
+      const double j2x2 = series ? j2x2_series : j2x2_closed, sinc5 = series ? sinc5_series : sinc5_closed;
       x_dv_dx = -z * ((1.0 - limb_u) * j2x2 + limb_u * sinc5) * inv_den;       // d sinc3/dx = -x sinc5
     }
   }

@@ -24,7 +24,7 @@
 // (tests/data/disk_kernel_reference.csv) and with the libm-based astro::Model to better than 1e-13
 // absolute over 0 <= x <= 1000.
 //
-// Speed: the translation unit is compiled with -O3 -fno-math-errno; the loops are cloned for x86-64-v4
+// Speed: the translation unit is compiled with -O3 -fno-math-errno -fno-trapping-math; the loops are cloned for x86-64-v4
 // (AVX-512), x86-64-v3 (AVX2 + FMA) and baseline x86-64, chosen at run time from the CPU (GCC
 // target_clones, which checks the CPU the way __builtin_cpu_supports does). bench/kernel_bench.cpp
 // measures it. Results can differ between the clones in the last bits (FMA contraction), never between
