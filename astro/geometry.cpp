@@ -176,6 +176,20 @@ Enu enu_from_geodetic(const Site& site, double lat_rad, double lon_east_rad, dou
   return {-sl * dx + cl * dy, -sp * cl * dx - sp * sl * dy + cp * dz, cp * cl * dx + cp * sl * dy + sp * dz};
 }
 
+Geocentric site_geocentric(const Site& site) {
+  double p[3];
+  if (eraGd2gc(ERFA_WGS84, site.lon_east_rad, site.lat_rad, site.height_m, p) != 0)
+    throw InputError("site", "latitude or height out of range", "give a latitude within +-90 degrees");
+  return {p[0], p[1], p[2]};
+}
+
+Geocentric geocentric_offset_from_enu(const Site& site, const Enu& enu) {
+  double sl = std::sin(site.lon_east_rad), cl = std::cos(site.lon_east_rad);
+  double sp = std::sin(site.lat_rad), cp = std::cos(site.lat_rad);
+  const double e = enu.east_m, n = enu.north_m, u = enu.up_m;
+  return {-sl * e - sp * cl * n + cp * cl * u, cl * e - sp * sl * n + cp * sl * u, cp * n + sp * u};
+}
+
 BaselineXyz baseline_xyz(const Telescope& a, const Telescope& b, double lat_rad) {
   double e = b.east_m - a.east_m, n = b.north_m - a.north_m, u = b.up_m - a.up_m;
   double sp = std::sin(lat_rad), cp = std::cos(lat_rad);

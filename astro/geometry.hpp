@@ -96,6 +96,16 @@ struct Enu {
 };
 Enu enu_from_geodetic(const Site& site, double lat_rad, double lon_east_rad, double height_m);
 
+// Earth-centred, Earth-fixed (ITRS/WGS84) coordinates in metres, as OIFITS's FRAME = 'GEOCENTRIC' wants.
+struct Geocentric {
+  double x_m = 0, y_m = 0, z_m = 0;
+};
+// The site's reference point (eraGd2gc, WGS84; geometry.md §1.1).
+Geocentric site_geocentric(const Site& site);
+// A local east-north-up offset at the site turned into an ECEF offset: the transpose of the ECEF -> ENU
+// rotation of geometry.md §1.2 (so enu_from_geodetic of the resulting point gives the offset back).
+Geocentric geocentric_offset_from_enu(const Site& site, const Enu& enu);
+
 // Baseline b - a in the TMS equatorial frame (X to H=0,dec=0; Y to H=-6h,dec=0 (East); Z to the pole):
 // X = -sin(lat) N + cos(lat) U, Y = E, Z = cos(lat) N + sin(lat) U (geometry.md §1.3; Thompson, Moran &
 // Swenson 2017, §4.1).

@@ -35,7 +35,8 @@ io::Vis2Data to_vis2_data(const CorrelationSet& set, const Reduction& red) {
     s.index = int(d.array.stations.size()) + 1;
     s.tel_name = s.sta_name = t.name;
     s.diameter_m = t.diameter_m;
-    s.xyz_m = {t.east_m, t.north_m, t.up_m};
+    const Geocentric g = geocentric_offset_from_enu(set.site, Enu{t.east_m, t.north_m, t.up_m});
+    s.xyz_m = {g.x_m, g.y_m, g.z_m};
     d.array.stations.push_back(s);
     return s.index;
   };
@@ -48,7 +49,10 @@ io::Vis2Data to_vis2_data(const CorrelationSet& set, const Reduction& red) {
     d.instruments.push_back(io::OiInstrument{name, {io::OiChannel{m.lambda_m, m.bandwidth_m}}});
     return int(d.instruments.size()) - 1;
   };
-  d.array.frame = "LOCAL";   // station positions: east, north, up relative to the site (m)
+  // OI_ARRAY in the standard's GEOCENTRIC frame: the site's ECEF position, stations as ECEF offsets.
+  const Geocentric centre = site_geocentric(set.site);
+  d.array.frame = "GEOCENTRIC";
+  d.array.center_xyz_m = {centre.x_m, centre.y_m, centre.z_m};
   for (const auto& p : red.points) {
     const RunMetadata& m = set.runs[p.run].meta;
     io::Vis2Record r;

@@ -8,6 +8,7 @@
 #include <string>
 
 #include <erfa.h>
+#include <erfam.h>
 
 #include "astro/errors.hpp"
 #include "astro/geometry.hpp"
@@ -361,5 +362,27 @@ TEST_SUITE("astro/geometry") {
     auto star_alt = [&](JulianDate t) { return Epoch(north, t).star({30 * kDegToRad, -80 * kDegToRad, 0, 0}).alt_rad; };
     CHECK(interval_of(star_alt, nw.start_utc, nw.end_utc, 0, false).kind == Interval::Kind::None);
     CHECK(find_crossings(star_alt, nw.start_utc, nw.end_utc, 0).empty());
+  }
+
+  TEST_CASE("ENU offsets to geocentric (OIFITS FRAME = GEOCENTRIC) and back") {
+    // Reference point of geometry.md §1.5 (phi0 = -30 deg, lambda0 = -70 deg, h = 2000 m); telescope B of
+    // that section has ENU (1447.8939, 1108.7788, 4.7391) m [computed]. Going to ECEF with our transpose
+    // rotation, back to geodetic with ERFA's eraGc2gd and to ENU with enu_from_geodetic must close.
+    Site site;
+    site.lat_rad = -30 * kDegToRad;
+    site.lon_east_rad = -70 * kDegToRad;
+    site.height_m = 2000;
+    const Geocentric ref = site_geocentric(site);
+    const Geocentric d = geocentric_offset_from_enu(site, Enu{1447.8939, 1108.7788, 4.7391});
+    double p[3] = {ref.x_m + d.x_m, ref.y_m + d.y_m, ref.z_m + d.z_m}, lon = 0, lat = 0, h = 0;
+    REQUIRE(eraGc2gd(ERFA_WGS84, p, &lon, &lat, &h) == 0);
+    // geometry.md §1.5: B is at phi = -29.990 deg, lambda = -69.985 deg, h = 2005 m.
+    check_close(lat * kRadToDeg, -29.990, 0, 1e-7, "latitude of B");
+    check_close(lon * kRadToDeg, -69.985, 0, 1e-7, "longitude of B");
+    check_close(h, 2005, 0, 1e-3, "height of B");
+    const Enu back = enu_from_geodetic(site, lat, lon, h);
+    check_close(back.east_m, 1447.8939, 0, 1e-6, "east");
+    check_close(back.north_m, 1108.7788, 0, 1e-6, "north");
+    check_close(back.up_m, 4.7391, 0, 1e-6, "up");
   }
 }
