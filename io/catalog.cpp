@@ -69,8 +69,10 @@ std::optional<Sexagesimal> split_sexagesimal(std::string_view text, bool& malfor
     return std::nullopt;
   }
   if (parts.size() == 2) {   // "hh:mm.m": minutes with a fraction
-    out.second = int(std::floor(*last));
-    out.third = (*last - out.second) * 60;
+    // 60 or more minutes is out of range (ERFA says so below); never convert a huge value to int
+    // (fuzzing found "06:2344444444444444444444444")
+    out.second = *last < 60 ? int(std::floor(*last)) : 60;
+    out.third = *last < 60 ? (*last - out.second) * 60 : 0;
   } else {
     out.third = *last;
   }

@@ -5,20 +5,22 @@
 # sanitizer report, uncaught exception other than siiplan::InputError, leak, input slower than 25 s)
 # leaves crash-*/leak-*/timeout-* files in build-fuzz/ and makes the script fail. Leaks inside HDF5
 # and cfitsio are suppressed by tests/lsan.supp (third-party frames only).
-#   scripts/fuzz.sh [SECONDS]
+#   scripts/fuzz.sh [SECONDS [HARNESS...]]     (default: every harness)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 seconds=${1:-60}
+shift $(( $# > 0 ? 1 : 0 ))
+harnesses=("$@")
+[ ${#harnesses[@]} -gt 0 ] || harnesses=($(cd tests/fuzz && ls fuzz_*.cpp | sed 's/\.cpp$//'))
 scripts/install-deps.sh
 cmake -S . -B build-fuzz -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_C_COMPILER=clang -DCMAKE_CXX_COMPILER=clang++ \
       -DSIIPLAN_FUZZ=ON -DSIIPLAN_BUILD_TESTS=OFF -DSIIPLAN_SANITIZE=ON >/dev/null
-cmake --build build-fuzz -j "$(nproc 2>/dev/null || echo 2)" --target $(cd tests/fuzz && ls fuzz_*.cpp | sed 's/\.cpp$//')
+cmake --build build-fuzz -j "$(nproc 2>/dev/null || echo 2)" --target "${harnesses[@]}"
 export LSAN_OPTIONS="suppressions=$PWD/tests/lsan.supp:print_suppressions=0"
 # A huge allocation request from a corrupt header returns NULL, as in the real program (cfitsio checks).
 export ASAN_OPTIONS="allocator_may_return_null=1"
 status=0
-for src in tests/fuzz/fuzz_*.cpp; do
-  name=$(basename "$src" .cpp)
+for name in "${harnesses[@]}"; do
   work=build-fuzz/corpus-$name findings=build-fuzz/findings-$name
   mkdir -p "$work" "$findings"
   [ -d "tests/fuzz/corpus/$name" ] && cp -n tests/fuzz/corpus/"$name"/* "$work"/ 2>/dev/null || true
@@ -35,7 +37,7 @@ for src in tests/fuzz/fuzz_*.cpp; do
     [ -e "$f" ] || continue
     trace=$("build-fuzz/tests/fuzz/$name" -timeout=25 "$f" 2>&1 || true)
     summary=$(grep -m 1 -E '^SUMMARY' <<<"$trace" || true)
-    frame=$(grep -E '^ +#[0-9]+ 0x' <<<"$trace" | grep -vE 'sanitizer|fuzzer::|libc\.so' | head -n 1 || true)
+    frame=$(grep -E '^ +#[0-9]+ 0x' <<<"$trace" | grep -vE 'sanitizer|interceptor|fuzzer::|libc\.so' | head -n 1 || true)
     if grep -qE 'libhdf5|libcfitsio' <<<"$frame"; then
       echo "   third-party finding $f: $summary in $(grep -oE 'lib(hdf5|cfitsio)[^ )]*' <<<"$frame" | head -n 1)"
     elif [ -n "$summary" ]; then

@@ -131,6 +131,8 @@ CASES = {
                                         .replace(",1\n", ",1,ud\n").replace(",2\n", ",2,donut\n"),
     # found by fuzz_catalog: a sexagesimal field too long for an int (was std::out_of_range, exit 1)
     "catalog-ra-huge-hours.csv": CATALOG.replace("06:23:57.1", "1" * 40 + "06:23:57.1"),
+    # found by fuzz_catalog: minutes too large for an int ("hh:mm.m" form; was undefined behaviour)
+    "catalog-ra-huge-minutes.csv": CATALOG.replace("06:23:57.1", "06:2344444444444444444444444"),
     "catalog-ok-extra-column.csv": CATALOG.replace("priority\n", "priority,spectral_type\n")
                                           .replace(",1\n", ",1,K2III\n").replace(",2\n", ",2,A9II\n"),
     "catalog-ok-crlf.csv": crlf(CATALOG),

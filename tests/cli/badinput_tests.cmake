@@ -98,6 +98,7 @@ bad_catalog(zero_diameter ${BAD}/catalog-zero-diameter.csv "catalog-zero-diamete
 bad_catalog(negative_priority ${BAD}/catalog-negative-priority.csv "catalog-negative-priority.csv:3: priority must be greater than 0")
 bad_catalog(unknown_model ${BAD}/catalog-unknown-model.csv "catalog-unknown-model.csv:3: unknown model 'donut' \\(use one of ud,")
 bad_catalog(ra_huge_hours ${BAD}/catalog-ra-huge-hours.csv "catalog-ra-huge-hours.csv:3: column 'ra': RA '1111.*' is not an angle")
+bad_catalog(ra_huge_minutes ${BAD}/catalog-ra-huge-minutes.csv "catalog-ra-huge-minutes.csv:3: column 'ra': RA '06:2344.*' is out of range \\(hours 0-23, minutes and seconds 0-59\\)")
 bad_catalog(non_utf8 ${BAD}/catalog-non-utf8.csv "catalog-non-utf8.csv:3: byte 2 of the line is not valid UTF-8")
 bad_catalog(fits_not_fits ${BAD}/not-fits.fits "not-fits.fits: cannot read as FITS")
 bad_catalog(fits_truncated ${BAD}/catalog-truncated.fits "catalog-truncated.fits.TARGETS. row 1: .*FITS")
