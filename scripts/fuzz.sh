@@ -22,20 +22,20 @@ export ASAN_OPTIONS="allocator_may_return_null=1"
 status=0
 for name in "${harnesses[@]}"; do
   work=build-fuzz/corpus-$name findings=build-fuzz/findings-$name
-  mkdir -p "$work" "$findings"
+  rm -rf "$findings" && mkdir -p "$work" "$findings"
   [ -d "tests/fuzz/corpus/$name" ] && cp -n tests/fuzz/corpus/"$name"/* "$work"/ 2>/dev/null || true
   echo "== $name (${seconds}s)"
   # fork mode keeps fuzzing after a finding; every finding is saved and triaged below
   (cd build-fuzz && "tests/fuzz/$name" -fork=1 -ignore_crashes=1 -ignore_timeouts=1 -ignore_ooms=1 \
        -max_total_time="$seconds" -max_len=65536 -timeout=25 -rss_limit_mb=2048 -artifact_prefix="findings-$name/" \
        "corpus-$name" >"$name.log" 2>&1) || true
-  grep -Eo 'exec/s: [0-9]+' "build-fuzz/$name.log" | tail -n 1 || true
+  grep -E 'cov: ' "build-fuzz/$name.log" | tail -n 1 || true
   # Triage: a finding whose innermost frame of interest (below the sanitizer, libFuzzer and libc
   # frames) lies in HDF5 or cfitsio is a third-party bug (listed, not fatal: siiplan cannot guard
   # against every malformed file inside those libraries); anything else is ours and fails the run.
   for f in "$findings"/*; do
     [ -e "$f" ] || continue
-    trace=$("build-fuzz/tests/fuzz/$name" -timeout=25 "$f" 2>&1 || true)
+    trace=$("build-fuzz/tests/fuzz/$name" -timeout=10 "$f" 2>&1 || true)
     summary=$(grep -m 1 -E '^SUMMARY' <<<"$trace" || true)
     frame=$(grep -E '^ +#[0-9]+ 0x' <<<"$trace" | grep -vE 'sanitizer|interceptor|fuzzer::|libc\.so' | head -n 1 || true)
     if grep -qE 'libhdf5|libcfitsio' <<<"$frame"; then
