@@ -9,6 +9,7 @@
 
 #include "astro/errors.hpp"
 #include "io/hdf5_output.hpp"
+#include "io/hdf5_util.hpp"
 
 namespace siiplan::io {
 namespace {
@@ -16,75 +17,10 @@ namespace {
 using astro::CorrelationRun;
 using astro::CorrelationSet;
 
-// One HDF5 identifier, closed on scope exit.
-class Id {
- public:
-  Id(hid_t id, herr_t (*close)(hid_t)) : id_(id), close_(close) {}
-  ~Id() {
-    if (id_ >= 0) close_(id_);
-  }
-  Id(const Id&) = delete;
-  Id& operator=(const Id&) = delete;
-  operator hid_t() const { return id_; }
-  bool ok() const { return id_ >= 0; }
-
- private:
-  hid_t id_;
-  herr_t (*close_)(hid_t);
-};
-
-hid_t text_type() {
-  hid_t t = H5Tcopy(H5T_C_S1);
-  H5Tset_size(t, H5T_VARIABLE);
-  H5Tset_cset(t, H5T_CSET_UTF8);
-  return t;
-}
-
-// Silences HDF5's own error printing while we work (its failures become our exceptions).
-struct Quiet {
-  H5E_auto2_t func = nullptr;
-  void* data = nullptr;
-  Quiet() {
-    H5Eget_auto2(H5E_DEFAULT, &func, &data);
-    H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr);
-  }
-  ~Quiet() { H5Eset_auto2(H5E_DEFAULT, func, data); }
-};
-
-struct Writer {
-  std::string file;
-  hid_t dcpl = H5P_DEFAULT;   // dataset creation properties (no modification times)
-  void check(bool ok, const std::string& what) const {
-    if (!ok) throw RuntimeFailure(file, "HDF5 could not write " + what, "check free disk space and permissions");
-  }
-  void attr(hid_t obj, const char* name, const double* v, hsize_t n) const {
-    Id space(n == 1 ? H5Screate(H5S_SCALAR) : H5Screate_simple(1, &n, nullptr), H5Sclose);
-    Id a(H5Acreate2(obj, name, H5T_NATIVE_DOUBLE, space, H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-    check(a.ok() && H5Awrite(a, H5T_NATIVE_DOUBLE, v) >= 0, name);
-  }
-  void attr(hid_t obj, const char* name, double v) const { attr(obj, name, &v, 1); }
-  void attr_int(hid_t obj, const char* name, int v) const {
-    Id space(H5Screate(H5S_SCALAR), H5Sclose);
-    Id a(H5Acreate2(obj, name, H5T_NATIVE_INT, space, H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-    check(a.ok() && H5Awrite(a, H5T_NATIVE_INT, &v) >= 0, name);
-  }
-  void attr_text(hid_t obj, const char* name, const std::string& v) const {
-    Id type(text_type(), H5Tclose);
-    Id space(H5Screate(H5S_SCALAR), H5Sclose);
-    Id a(H5Acreate2(obj, name, type, space, H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-    const char* p = v.c_str();
-    check(a.ok() && H5Awrite(a, type, &p) >= 0, name);
-  }
-  void data(hid_t parent, const char* name, hid_t file_type, hid_t mem_type, const void* v,
-            std::initializer_list<hsize_t> dims) const {
-    std::vector<hsize_t> d(dims);
-    Id space(H5Screate_simple(int(d.size()), d.data(), nullptr), H5Sclose);
-    Id ds(H5Dcreate2(parent, name, file_type, space, H5P_DEFAULT, dcpl, H5P_DEFAULT), H5Dclose);
-    bool empty = false;
-    for (auto n : d) empty = empty || n == 0;
-    check(ds.ok() && (empty || H5Dwrite(ds, mem_type, H5S_ALL, H5S_ALL, H5P_DEFAULT, v) >= 0), name);
-  }
-};
+using hdf5::Id;
+using hdf5::Quiet;
+using hdf5::text_type;
+using hdf5::Writer;
 
 // Reading: every failure is an InputError naming the file and the object path.
 struct Reader {
@@ -189,7 +125,7 @@ std::string run_name(std::size_t i) {
 void write_correlation_h5(const std::filesystem::path& path, const CorrelationSet& set) {
   Quiet quiet;
   Hdf5MemoryFile out(path);
-  Writer w{path.string(), out.dataset_properties()};
+  Writer w{path.string(), out.group_properties(), out.dataset_properties()};
   {
     const hid_t file = out.id();
     w.attr_text(file, "format", "siiplan-correlation");

@@ -11,85 +11,13 @@
 #include "astro/errors.hpp"
 #include "astro/models.hpp"
 #include "io/hdf5_output.hpp"
+#include "io/hdf5_util.hpp"
 
 namespace siiplan::io {
 namespace {
 
-// RAII holder for one HDF5 identifier with its matching close function.
-class Handle {
- public:
-  Handle(hid_t id, herr_t (*close)(hid_t)) : id_(id), close_(close) {}
-  ~Handle() {
-    if (id_ >= 0) close_(id_);
-  }
-  Handle(const Handle&) = delete;
-  Handle& operator=(const Handle&) = delete;
-  operator hid_t() const { return id_; }
-  bool ok() const { return id_ >= 0; }
-
- private:
-  hid_t id_;
-  herr_t (*close_)(hid_t);
-};
-
-// Writing: every failure is a RuntimeFailure naming the object.
-struct Writer {
-  std::string file;
-  hid_t gcpl = H5P_DEFAULT, dcpl = H5P_DEFAULT;   // creation properties (no modification times)
-  void check(bool ok, const std::string& what) const {
-    if (!ok) throw RuntimeFailure(file, "HDF5 could not write " + what, "check free disk space and permissions");
-  }
-  hid_t group(hid_t parent, const char* name) const {
-    hid_t g = H5Gcreate2(parent, name, H5P_DEFAULT, gcpl, H5P_DEFAULT);
-    check(g >= 0, name);
-    return g;
-  }
-  void attr_double(hid_t obj, const char* name, const double* values, hsize_t n) const {
-    Handle space(n == 1 ? H5Screate(H5S_SCALAR) : H5Screate_simple(1, &n, nullptr), H5Sclose);
-    Handle a(H5Acreate2(obj, name, H5T_NATIVE_DOUBLE, space, H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-    check(a.ok() && H5Awrite(a, H5T_NATIVE_DOUBLE, values) >= 0, name);
-  }
-  void attr(hid_t obj, const char* name, double v) const { attr_double(obj, name, &v, 1); }
-  void attr_int(hid_t obj, const char* name, int v) const {
-    Handle space(H5Screate(H5S_SCALAR), H5Sclose);
-    Handle a(H5Acreate2(obj, name, H5T_NATIVE_INT, space, H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-    check(a.ok() && H5Awrite(a, H5T_NATIVE_INT, &v) >= 0, name);
-  }
-  void attr_text(hid_t obj, const char* name, const std::string& v) const {
-    Handle type(string_type(), H5Tclose);
-    Handle space(H5Screate(H5S_SCALAR), H5Sclose);
-    Handle a(H5Acreate2(obj, name, type, space, H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-    const char* p = v.c_str();
-    check(a.ok() && H5Awrite(a, type, &p) >= 0, name);
-  }
-  void data(hid_t parent, const char* name, hid_t mem_type, const void* values, std::vector<hsize_t> dims) const {
-    Handle space(H5Screate_simple(int(dims.size()), dims.data(), nullptr), H5Sclose);
-    Handle d(H5Dcreate2(parent, name, mem_type, space, H5P_DEFAULT, dcpl, H5P_DEFAULT), H5Dclose);
-    bool empty = false;
-    for (auto n : dims) empty = empty || n == 0;
-    check(d.ok() && (empty || H5Dwrite(d, mem_type, H5S_ALL, H5S_ALL, H5P_DEFAULT, values) >= 0), name);
-  }
-  void doubles(hid_t parent, const char* name, const std::vector<double>& v, std::vector<hsize_t> dims = {}) const {
-    if (dims.empty()) dims = {v.size()};
-    data(parent, name, H5T_NATIVE_DOUBLE, v.data(), dims);
-  }
-  void ints(hid_t parent, const char* name, const std::vector<int>& v, std::vector<hsize_t> dims = {}) const {
-    if (dims.empty()) dims = {v.size()};
-    data(parent, name, H5T_NATIVE_INT, v.data(), dims);
-  }
-  void texts(hid_t parent, const char* name, const std::vector<std::string>& v) const {
-    std::vector<const char*> p;
-    for (auto& s : v) p.push_back(s.c_str());
-    Handle type(string_type(), H5Tclose);
-    data(parent, name, type, p.data(), {v.size()});
-  }
-  static hid_t string_type() {
-    hid_t t = H5Tcopy(H5T_C_S1);
-    H5Tset_size(t, H5T_VARIABLE);
-    H5Tset_cset(t, H5T_CSET_UTF8);
-    return t;
-  }
-};
+using hdf5::Writer;
+using Handle = hdf5::Id;
 
 // Reading: every failure is an InputError naming the file and object.
 struct Reader {
@@ -123,7 +51,7 @@ struct Reader {
   std::string attr_text(hid_t obj, const char* name) const {
     if (H5Aexists(obj, name) <= 0) fail(std::string("missing attribute '") + name + "'");
     Handle a(H5Aopen(obj, name, H5P_DEFAULT), H5Aclose);
-    Handle type(Writer::string_type(), H5Tclose);
+    Handle type(hdf5::text_type(), H5Tclose);
     char* p = nullptr;
     if (H5Aread(a, type, &p) < 0 || !p) fail(name);
     std::string s(p);
@@ -154,7 +82,7 @@ struct Reader {
   }
   std::vector<std::string> texts(hid_t parent, const char* name, hsize_t n) const {
     Handle d = open_data(parent, name, n);
-    Handle type(Writer::string_type(), H5Tclose);
+    Handle type(hdf5::text_type(), H5Tclose);
     std::vector<char*> p(n, nullptr);
     if (n > 0 && H5Dread(d, type, H5S_ALL, H5S_ALL, H5P_DEFAULT, p.data()) < 0) fail(name);
     std::vector<std::string> out;
@@ -179,20 +107,11 @@ const char* profile_name(astro::FilterProfile p) { return p == astro::FilterProf
 const char* zero_name(astro::ZeroBaseline z) { return z == astro::ZeroBaseline::Calibrated ? "calibrated" : "free"; }
 
 // Silences HDF5's automatic error stack printing while a file is open (errors become exceptions).
-struct QuietHdf5 {
-  H5E_auto2_t func = nullptr;
-  void* data = nullptr;
-  QuietHdf5() {
-    H5Eget_auto2(H5E_DEFAULT, &func, &data);
-    H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr);
-  }
-  ~QuietHdf5() { H5Eset_auto2(H5E_DEFAULT, func, data); }
-};
 
 }  // namespace
 
 void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
-  QuietHdf5 quiet;
+  hdf5::Quiet quiet;
   Hdf5MemoryFile out(path);
   Writer w{path.string(), out.group_properties(), out.dataset_properties()};
   {
@@ -218,7 +137,7 @@ void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
       w.attr(g, "dut1_s", s.dut1_s);
       w.attr(g, "utc_offset_h", s.utc_offset_h);
       w.attr(g, "min_altitude_rad", s.min_altitude_rad);
-      w.attr_double(g, "extinction_mag_per_airmass", s.extinction_mag_per_airmass.data(), astro::kBandCount);
+      w.attr(g, "extinction_mag_per_airmass", s.extinction_mag_per_airmass.data(), astro::kBandCount);
     }
     {
       Handle g(w.group(file, "array"), H5Gclose);
@@ -324,7 +243,7 @@ void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
         w.doubles(bg, "w_m", blk.w_m, {np, ns});
         w.doubles(bg, "vis2", blk.vis2, {np, ns});
         w.doubles(bg, "sigma_vis2", blk.sigma_vis2, {np, ns});
-        w.data(bg, "usable", H5T_NATIVE_UINT8, blk.usable.data(), {np, ns});
+        w.data(bg, "usable", H5T_NATIVE_UINT8, H5T_NATIVE_UINT8, blk.usable.data(), {np, ns});
       }
     }
   }
@@ -332,7 +251,7 @@ void write_plan_h5(const std::filesystem::path& path, const PlanFile& plan) {
 }
 
 PlanFile read_plan_h5(const std::filesystem::path& path) {
-  QuietHdf5 quiet;
+  hdf5::Quiet quiet;
   Reader r{path.string()};
   if (!std::filesystem::exists(path)) throw InputError(path.string(), "file not found", "check the path");
   if (H5Fis_hdf5(path.c_str()) <= 0) r.fail("not an HDF5 file");

@@ -23,6 +23,12 @@ std::string format_number(double value, int significant_digits) {
   return buf;
 }
 
+std::string format_printf(const char* printf_format, double value) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, printf_format, value);
+  return buf;
+}
+
 std::string csv_escape(std::string_view text) {
   if (text.find_first_of(",\"\n\r") == std::string_view::npos) return std::string(text);
   std::string out = "\"";

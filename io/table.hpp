@@ -37,6 +37,8 @@ class Table {
 
 // Number formatting shared by every writer: %.15g for machine output, %.<p>g for people.
 std::string format_number(double value, int significant_digits = 15);
+// One number through a printf format ("%.2f", "%g"), for prose and HTML.
+std::string format_printf(const char* printf_format, double value);
 // CSV field quoting (RFC 4180): quote when the text holds a comma, quote or newline.
 std::string csv_escape(std::string_view text);
 

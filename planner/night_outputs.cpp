@@ -11,6 +11,7 @@
 #include "astro/time.hpp"
 #include "astro/units.hpp"
 #include "io/svg_plot.hpp"
+#include "io/table.hpp"
 
 namespace siiplan::planner {
 
@@ -18,11 +19,7 @@ namespace {
 
 using astro::kRadToDeg;
 
-std::string fmt(const char* format, double value) {
-  char buf[64];
-  std::snprintf(buf, sizeof buf, format, value);
-  return buf;
-}
+std::string fmt(const char* format, double value) { return io::format_printf(format, value); }
 
 std::string hhmm(astro::JulianDate t) { return astro::format_utc(t).substr(11, 5); }
 

@@ -8,6 +8,7 @@
 
 #include "astro/fisher.hpp"
 #include "astro/geometry.hpp"
+#include "io/table.hpp"
 
 namespace siiplan::planner {
 
@@ -15,11 +16,7 @@ namespace {
 
 using astro::JulianDate;
 
-std::string fmt(const char* format, double value) {
-  char buf[64];
-  std::snprintf(buf, sizeof buf, format, value);
-  return buf;
-}
+std::string fmt(const char* format, double value) { return io::format_printf(format, value); }
 
 // The dark window and the Sun/Moon on the slot grid.
 NightGrid make_grid(const NightInputs& in) {
