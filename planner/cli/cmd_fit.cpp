@@ -106,8 +106,6 @@ bool model_has(ModelKind kind, const std::string& name) {
   return false;
 }
 
-std::string user_text(double internal, double scale, int digits = 8) { return io::format_number(internal * scale, digits); }
-
 // UD <-> LD conversions of a result (models.md §2): a UD diameter into an LD one for a linear law
 // (--convert-limb-u), or an LD diameter into its UD equivalent. Both criteria of astro/limb_conversion.
 struct Conversion {
