@@ -3,6 +3,7 @@
 
 #include <hdf5.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <cstring>
@@ -71,6 +72,7 @@ struct Reader {
       return s;
     }
     std::size_t n = H5Tget_size(ftype);
+    if (!hdf5::fits_in_file(a, n, 1)) fail(where, std::string("attribute '") + name + "' claims more text than the file holds");
     std::string s(n, '\0');
     Id type(H5Tcopy(H5T_C_S1), H5Tclose);
     H5Tset_size(type, n);
@@ -102,8 +104,10 @@ struct Reader {
       fail(where, std::string("dataset '") + name + "' has shape " + (got.empty() ? "scalar" : got) + ", expected " + want);
     }
     if (shape_out) *shape_out = dims;
-    hsize_t n = 1;
-    for (auto x : dims) n *= x;
+    hssize_t points = H5Sget_simple_extent_npoints(space);
+    const hsize_t n = hsize_t(std::max<hssize_t>(points, 0));
+    if (points < 0 || !hdf5::fits_in_file(d, n, sizeof(T)))
+      fail(where, std::string("dataset '") + name + "' claims more values than the file holds");
     std::vector<T> v(n);
     if (n > 0 && H5Dread(d, mem_type, H5S_ALL, H5S_ALL, H5P_DEFAULT, v.data()) < 0)
       fail(where, std::string("dataset '") + name + "' cannot be read (truncated or corrupted file?)");

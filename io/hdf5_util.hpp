@@ -51,6 +51,19 @@ struct Quiet {
   Quiet& operator=(const Quiet&) = delete;
 };
 
+// Whether `n_values` values of `value_bytes` bytes each can be stored in the file that holds `obj`.
+// Readers ask before they allocate, so that a damaged header cannot make them ask for gigabytes.
+// siiplan's writers store every value (nothing is read back as an unwritten fill value); a foreign file
+// may deflate its data, and zlib's best ratio is 1032:1 (zlib technical details, "maximum compression
+// factor"), so more bytes than 1032 times the file's size cannot be there.
+inline bool fits_in_file(hid_t obj, hsize_t n_values, std::size_t value_bytes) {
+  constexpr hsize_t kMaxCompression = 1032;
+  Id file(H5Iget_file_id(obj), H5Fclose);
+  hsize_t file_bytes = 0;
+  if (!file.ok() || H5Fget_filesize(file, &file_bytes) < 0) return false;
+  return value_bytes == 0 || n_values <= file_bytes * kMaxCompression / value_bytes;
+}
+
 // Writing: every failure is a RuntimeFailure naming the file and the object.
 struct Writer {
   std::string file;

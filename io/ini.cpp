@@ -1,14 +1,11 @@
 #include "io/ini.hpp"
 
-#include <boost/program_options.hpp>
 #include <sstream>
 
 #include "astro/errors.hpp"
 #include "io/csv.hpp"
 
 namespace siiplan::io {
-
-namespace po = boost::program_options;
 
 namespace {
 std::string trim(const std::string& s) {
@@ -23,55 +20,44 @@ IniFile IniFile::read(const std::filesystem::path& path) { return parse(read_fil
 IniFile IniFile::parse(const std::string& text, const std::string& source) {
   IniFile ini;
   ini.source_ = source;
-  if (trim(text).empty()) throw InputError(source, "the file is empty", "see the README for the keys it needs");
-  // Line numbers (and sections) from a plain scan; values from Boost.Program_options.
-  std::map<std::string, int> lines;
-  {
-    std::istringstream in(text);
-    std::string line, section;
-    int n = 0;
-    while (std::getline(in, line)) {
-      ++n;
-      if (std::size_t bad = invalid_utf8_at(line); bad != std::string::npos)
-        throw InputError(source + ":" + std::to_string(n), "byte " + std::to_string(bad + 1) + " of the line is not valid UTF-8 text",
-                         "save the file as UTF-8 (or plain ASCII)");
-      std::string t = trim(line);
-      if (t.empty() || t[0] == '#' || t[0] == ';') continue;
-      if (t.front() == '[') {
-        if (t.back() != ']')
-          throw InputError(source + ":" + std::to_string(n), "section header '" + t + "' is not closed",
-                           "write it as [name]");
-        section = trim(t.substr(1, t.size() - 2));
-        ini.sections_.insert(section);
-        continue;
+  const bool bom = text.rfind("\xEF\xBB\xBF", 0) == 0;   // UTF-8 byte-order mark
+  std::istringstream in(bom ? text.substr(3) : text);
+  std::string line, section;
+  int n = 0;
+  while (std::getline(in, line)) {
+    ++n;
+    const std::string where = source + ":" + std::to_string(n);
+    if (std::size_t bad = invalid_utf8_at(line); bad != std::string::npos)
+      throw InputError(where, "byte " + std::to_string(bad + 1) + " of the line is not valid UTF-8 text",
+                       "save the file as UTF-8 (or plain ASCII)");
+    // A '#' or ';' at the start of the line or after a blank starts a comment.
+    for (std::size_t p = 0; p < line.size(); ++p)
+      if ((line[p] == '#' || line[p] == ';') && (p == 0 || line[p - 1] == ' ' || line[p - 1] == '\t')) {
+        line.resize(p);
+        break;
       }
-      auto eq = t.find('=');
-      if (eq == std::string::npos)
-        throw InputError(source + ":" + std::to_string(n), "line '" + t + "' is not 'key = value'",
-                         "write one 'key = value' per line, or comment the line out with '#'");
-      std::string key = (section.empty() ? "" : section + ".") + trim(t.substr(0, eq));
-      if (lines.count(key))
-        throw InputError(source + ":" + std::to_string(n), "key '" + key + "' is given twice",
-                         "keep one of the two lines");
-      lines[key] = n;
+    std::string t = trim(line);
+    if (t.empty()) continue;
+    if (t.front() == '[') {
+      if (t.back() != ']')
+        throw InputError(where, "section header '" + t + "' is not closed", "write it as [name]");
+      section = trim(t.substr(1, t.size() - 2));
+      ini.sections_.insert(section);
+      continue;
     }
+    auto eq = t.find('=');
+    if (eq == std::string::npos)
+      throw InputError(where, "line '" + t + "' is not 'key = value'",
+                       "write one 'key = value' per line, or comment the line out with '#'");
+    std::string name = trim(t.substr(0, eq));
+    if (name.empty()) throw InputError(where, "line '" + t + "' has no key before '='", "write it as 'key = value'");
+    std::string key = (section.empty() ? "" : section + ".") + name;
+    if (ini.values_.count(key))
+      throw InputError(where, "key '" + key + "' is given twice", "keep one of the two lines");
+    ini.values_[key] = {trim(t.substr(eq + 1)), n};
   }
-  std::istringstream in(text);
-  po::parsed_options parsed(nullptr);
-  try {
-    po::options_description none;
-    parsed = po::parse_config_file(in, none, /*allow_unregistered=*/true);
-  } catch (const po::error& e) {
-    throw InputError(source, e.what(), "fix the line it names");
-  }
-  for (const auto& opt : parsed.options) {
-    std::string value = opt.value.empty() ? std::string() : trim(opt.value.front());
-    // Strip a trailing comment after the value.
-    for (char mark : {'#', ';'})
-      if (auto p = value.find(std::string(" ") + mark); p != std::string::npos) value = trim(value.substr(0, p));
-    auto it = lines.find(opt.string_key);
-    ini.values_[opt.string_key] = {value, it == lines.end() ? 0 : it->second};
-  }
+  if (ini.values_.empty() && ini.sections_.empty())
+    throw InputError(source, "the file is empty", "see the README for the keys it needs");
   return ini;
 }
 

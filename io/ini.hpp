@@ -1,5 +1,6 @@
-// INI files written by people (site, instrument): "[section]" headers and "key = value" lines, '#' or
-// ';' comments. Parsed with Boost.Program_options; every key remembers its line for error messages.
+// INI files written by people (site, instrument): "[section]" headers and "key = value" lines; a '#' or
+// ';' at the start of a line or after a blank starts a comment. Every key remembers its line for error
+// messages; a key given twice, a line without '=' or an unclosed header is an InputError naming the line.
 // Unknown keys are not fatal: unknown_keys() lists them so the caller can warn.
 #pragma once
 

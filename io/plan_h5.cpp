@@ -36,8 +36,9 @@ struct Reader {
     Handle a(H5Aopen(obj, name, H5P_DEFAULT), H5Aclose);
     Handle space(H5Aget_space(a), H5Sclose);
     hssize_t n = H5Sget_simple_extent_npoints(space);
-    std::vector<double> v(std::size_t(n > 0 ? n : 0));
-    if (n <= 0 || H5Aread(a, H5T_NATIVE_DOUBLE, v.data()) < 0) fail(name);
+    if (n <= 0 || !hdf5::fits_in_file(a, hsize_t(n), sizeof(double))) fail(name);
+    std::vector<double> v(static_cast<std::size_t>(n));
+    if (H5Aread(a, H5T_NATIVE_DOUBLE, v.data()) < 0) fail(name);
     return v;
   }
   double attr(hid_t obj, const char* name) const { return attr_doubles(obj, name).at(0); }
@@ -65,6 +66,8 @@ struct Reader {
     Handle space(H5Dget_space(d), H5Sclose);
     if (!d.ok() || H5Sget_simple_extent_npoints(space) != hssize_t(expected))
       fail(std::string("dataset '") + name + "' has the wrong size");
+    if (!hdf5::fits_in_file(d, expected, sizeof(double)))
+      fail(std::string("dataset '") + name + "' claims more values than the file holds");
     return Handle(H5Dopen2(parent, name, H5P_DEFAULT), H5Dclose);
   }
   template <class T>
@@ -105,8 +108,6 @@ struct Reader {
 const char* mode_name(astro::DetectionMode m) { return m == astro::DetectionMode::Analog ? "analog" : "photon-counting"; }
 const char* profile_name(astro::FilterProfile p) { return p == astro::FilterProfile::TopHat ? "top-hat" : "gaussian"; }
 const char* zero_name(astro::ZeroBaseline z) { return z == astro::ZeroBaseline::Calibrated ? "calibrated" : "free"; }
-
-// Silences HDF5's automatic error stack printing while a file is open (errors become exceptions).
 
 }  // namespace
 

@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
 # Builds the libFuzzer harnesses (tests/fuzz/fuzz_*.cpp, one per reader) with clang, ASan and UBSan and
-# runs each for SECONDS seconds (default 60) from its committed seed corpus (tests/fuzz/corpus/<harness>/).
+# runs each for SECONDS seconds (default 60) from its committed inputs: the seed corpus
+# (tests/fuzz/corpus/<harness>/) and the regression inputs (tests/fuzz/regressions/<harness>/; ctest replays
+# both in every ordinary test build, so a fixed bug stays fixed).
 # New inputs found go to a scratch copy of the corpus (build-fuzz/corpus-<harness>/); a finding (crash,
 # sanitizer report, uncaught exception other than siiplan::InputError, leak, input slower than 25 s)
 # leaves crash-*/leak-*/timeout-* files in build-fuzz/ and makes the script fail. Leaks inside HDF5
@@ -23,7 +25,9 @@ status=0
 for name in "${harnesses[@]}"; do
   work=build-fuzz/corpus-$name findings=build-fuzz/findings-$name
   rm -rf "$findings" && mkdir -p "$work" "$findings"
-  [ -d "tests/fuzz/corpus/$name" ] && cp -n tests/fuzz/corpus/"$name"/* "$work"/ 2>/dev/null || true
+  for seeds in tests/fuzz/corpus/"$name" tests/fuzz/regressions/"$name"; do
+    [ -d "$seeds" ] && cp -n "$seeds"/* "$work"/ 2>/dev/null || true
+  done
   echo "== $name (${seconds}s)"
   # fork mode keeps fuzzing after a finding; every finding is saved and triaged below
   (cd build-fuzz && "tests/fuzz/$name" -fork=1 -ignore_crashes=1 -ignore_timeouts=1 -ignore_ooms=1 \
@@ -36,7 +40,8 @@ for name in "${harnesses[@]}"; do
   # libraries); anything else is ours and fails the run.
   for f in "$findings"/*; do
     [ -e "$f" ] || continue
-    trace=$("build-fuzz/tests/fuzz/$name" -timeout=10 "$f" 2>&1 || true)
+    # the malloc limit makes an out-of-memory finding print the stack of the allocation
+    trace=$("build-fuzz/tests/fuzz/$name" -timeout=10 -rss_limit_mb=2048 -malloc_limit_mb=2048 "$f" 2>&1 || true)
     summary=$(grep -m 1 -E '^SUMMARY' <<<"$trace" || true)
     frame=$(grep -E '^ +#[0-9]+ 0x' <<<"$trace" | grep -vE 'sanitizer|interceptor|fuzzer::' \
               | grep -E 'lib(hdf5|cfitsio)|/(astro|io|planner|tests)/' | head -n 1 || true)

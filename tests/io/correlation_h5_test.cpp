@@ -133,4 +133,30 @@ TEST_CASE("a dataset with the wrong shape is named") {
   fs::remove(path);
 }
 
+TEST_CASE("a dataset that claims more values than the file holds is refused before any allocation") {
+  // Fuzz regression: a damaged header made the reader allocate gigabytes. Here 'delay_s' is rewritten as
+  // a chunked dataset of 4e9 values with no chunk written (HDF5 would return its fill value): 32 GB for a
+  // file of a few kB.
+  const fs::path path = fs::temp_directory_path() / "siiplan_corr_huge.h5";
+  io::write_correlation_h5(path, small_set());
+  {
+    hid_t f = H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT);
+    REQUIRE(f >= 0);
+    H5Ldelete(f, "/runs/run_0000/delay_s", H5P_DEFAULT);
+    hsize_t dims[1] = {4000000000ULL}, chunk[1] = {1024};
+    hid_t space = H5Screate_simple(1, dims, nullptr);
+    hid_t dcpl = H5Pcreate(H5P_DATASET_CREATE);
+    H5Pset_chunk(dcpl, 1, chunk);
+    hid_t d = H5Dcreate2(f, "/runs/run_0000/delay_s", H5T_NATIVE_DOUBLE, space, H5P_DEFAULT, dcpl, H5P_DEFAULT);
+    REQUIRE(d >= 0);
+    H5Dclose(d);
+    H5Pclose(dcpl);
+    H5Sclose(space);
+    H5Fclose(f);
+  }
+  REQUIRE(fs::file_size(path) < 100000);
+  CHECK(message_of(path).find("/runs/run_0000: dataset 'delay_s' claims more values than the file holds") != std::string::npos);
+  fs::remove(path);
+}
+
 }  // TEST_SUITE
