@@ -35,6 +35,23 @@ void print_overview(std::ostream& out) {
   out << "\nExit codes: 0 success, 1 runtime failure, 2 bad usage or input.\n";
 }
 
+// The text of a command-line error. Boost.Program_options 1.74 fills placeholders such as
+// %canonical_option% in a loop that never ends when the user's own text holds the same placeholder (an
+// option spelled '--%canonical_option%' hung the program), so the text is built from a copy whose
+// user-given parts show '%' as the look-alike U+FF05.
+std::string usage_error_text(const po::error& e) {
+  struct Defused : po::error_with_option_name {
+    explicit Defused(const po::error_with_option_name& original) : po::error_with_option_name(original) {
+      for (auto& entry : m_substitutions) {
+        std::string& text = entry.second;
+        for (auto p = text.find('%'); p != std::string::npos; p = text.find('%', p)) text.replace(p, 1, "\uFF05");
+      }
+    }
+  };
+  if (const auto* named = dynamic_cast<const po::error_with_option_name*>(&e)) return Defused(*named).what();
+  return e.what();
+}
+
 po::options_description describe(const Command& c) {
   po::options_description desc("Options of 'siiplan " + c.name + "'");
   desc.add_options()("help,h", "show this help");
@@ -83,7 +100,7 @@ int run(int argc, char** argv) {
     po::store(po::command_line_parser(rest).options(desc).positional(positional).run(), vm);
     po::notify(vm);
   } catch (const po::error& e) {
-    throw siiplan::InputError("", e.what(), "see 'siiplan help " + c->name + "'");
+    throw siiplan::InputError("", usage_error_text(e), "see 'siiplan help " + c->name + "'");
   }
   return c->run(vm);
 }

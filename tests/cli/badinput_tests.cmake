@@ -191,6 +191,9 @@ bad_option(diameter_negative "--diameter-mas: value -1 is out of range \\(it mus
 bad_option(too_many_baselines "--baselines-m: range '0:1e12:1e-3' has more than 1000000 values"
            curve --model ud --diameter-mas 1 --wavelength-nm 450 --baselines-m 0:1e12:1e-3)
 bad_option(step_zero "--step-min: must be greater than zero, got 0" ${BAD_TRACKS} ${BAD_STAR} ${BAD_NIGHT} --step-min 0)
+# Boost.Program_options 1.74 looped forever on its own placeholder syntax in an option name.
+bad_option(unknown_option_placeholder "unrecognised option '--.+canonical_option.+=1' \\(see 'siiplan help curve'\\)"
+           curve --%canonical_option%=1 --diameter-mas 1 --wavelength-nm 450 --baselines-m 0:10:1)
 bad_option(magnitude_nan "--magnitude: 'nan' is not a finite number"
            resolve --instrument ${DEMO}/instrument-small.ini --magnitude nan --diameter-mas 1 --baselines-m 10,20 --mirror-diameter-m 1)
 
