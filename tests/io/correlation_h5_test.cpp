@@ -56,6 +56,25 @@ astro::CorrelationSet small_set() {
   return set;
 }
 
+// A valid correlation file in the temporary directory, then the HDF5 C API replaces run 0's dataset
+// `name` with a one-dimensional double dataset of n values (written from `values` unless null).
+fs::path with_dataset_replaced(const char* file, const char* name, hsize_t n, hid_t dcpl, const double* values) {
+  const fs::path path = fs::temp_directory_path() / file;
+  io::write_correlation_h5(path, small_set());
+  const std::string object = std::string("/runs/run_0000/") + name;
+  hid_t f = H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT);
+  REQUIRE(f >= 0);
+  H5Ldelete(f, object.c_str(), H5P_DEFAULT);
+  hid_t space = H5Screate_simple(1, &n, nullptr);
+  hid_t d = H5Dcreate2(f, object.c_str(), H5T_NATIVE_DOUBLE, space, H5P_DEFAULT, dcpl, H5P_DEFAULT);
+  REQUIRE(d >= 0);
+  if (values) H5Dwrite(d, H5T_NATIVE_DOUBLE, H5S_ALL, H5S_ALL, H5P_DEFAULT, values);
+  H5Dclose(d);
+  H5Sclose(space);
+  H5Fclose(f);
+  return path;
+}
+
 }  // namespace
 
 TEST_SUITE("io/correlation_h5") {
@@ -112,24 +131,10 @@ TEST_CASE("bad files are InputErrors that name the problem") {
 }
 
 TEST_CASE("a dataset with the wrong shape is named") {
-  // Made with the HDF5 C API: the valid layout, then 'rate_hz' rewritten with one column.
-  const fs::path path = fs::temp_directory_path() / "siiplan_corr_badshape.h5";
-  io::write_correlation_h5(path, small_set());
-  {
-    hid_t f = H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT);
-    REQUIRE(f >= 0);
-    H5Ldelete(f, "/runs/run_0000/rate_hz", H5P_DEFAULT);
-    hsize_t dims[1] = {3};
-    hid_t space = H5Screate_simple(1, dims, nullptr);
-    hid_t d = H5Dcreate2(f, "/runs/run_0000/rate_hz", H5T_NATIVE_DOUBLE, space, H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT);
-    double v[3] = {1, 2, 3};
-    H5Dwrite(d, H5T_NATIVE_DOUBLE, H5S_ALL, H5S_ALL, H5P_DEFAULT, v);
-    H5Dclose(d);
-    H5Sclose(space);
-    H5Fclose(f);
-  }
-  std::string msg = message_of(path);
-  CHECK(msg.find("/runs/run_0000: dataset 'rate_hz' has shape 3, expected 3 x 2") != std::string::npos);
+  // The valid layout, then 'rate_hz' rewritten with one column.
+  const double v[3] = {1, 2, 3};
+  const fs::path path = with_dataset_replaced("siiplan_corr_badshape.h5", "rate_hz", 3, H5P_DEFAULT, v);
+  CHECK(message_of(path).find("/runs/run_0000: dataset 'rate_hz' has shape 3, expected 3 x 2") != std::string::npos);
   fs::remove(path);
 }
 
@@ -137,23 +142,11 @@ TEST_CASE("a dataset that claims more values than the file holds is refused befo
   // Fuzz regression: a damaged header made the reader allocate gigabytes. Here 'delay_s' is rewritten as
   // a chunked dataset of 4e9 values with no chunk written (HDF5 would return its fill value): 32 GB for a
   // file of a few kB.
-  const fs::path path = fs::temp_directory_path() / "siiplan_corr_huge.h5";
-  io::write_correlation_h5(path, small_set());
-  {
-    hid_t f = H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT);
-    REQUIRE(f >= 0);
-    H5Ldelete(f, "/runs/run_0000/delay_s", H5P_DEFAULT);
-    hsize_t dims[1] = {4000000000ULL}, chunk[1] = {1024};
-    hid_t space = H5Screate_simple(1, dims, nullptr);
-    hid_t dcpl = H5Pcreate(H5P_DATASET_CREATE);
-    H5Pset_chunk(dcpl, 1, chunk);
-    hid_t d = H5Dcreate2(f, "/runs/run_0000/delay_s", H5T_NATIVE_DOUBLE, space, H5P_DEFAULT, dcpl, H5P_DEFAULT);
-    REQUIRE(d >= 0);
-    H5Dclose(d);
-    H5Pclose(dcpl);
-    H5Sclose(space);
-    H5Fclose(f);
-  }
+  hid_t dcpl = H5Pcreate(H5P_DATASET_CREATE);
+  const hsize_t chunk[1] = {1024};
+  H5Pset_chunk(dcpl, 1, chunk);
+  const fs::path path = with_dataset_replaced("siiplan_corr_huge.h5", "delay_s", 4000000000ULL, dcpl, nullptr);
+  H5Pclose(dcpl);
   REQUIRE(fs::file_size(path) < 100000);
   CHECK(message_of(path).find("/runs/run_0000: dataset 'delay_s' claims more values than the file holds") != std::string::npos);
   fs::remove(path);
