@@ -9,6 +9,7 @@
 #include <string>
 
 #include "astro/errors.hpp"
+#include "io/fits_check.hpp"
 #include "io/catalog.hpp"
 #include "io/table.hpp"
 
@@ -79,6 +80,7 @@ std::vector<astro::Target> read_target_catalog(const std::filesystem::path& path
 std::vector<astro::Target> read_catalog_fits(const std::filesystem::path& path) {
   const std::string file = path.string();
   if (!std::filesystem::exists(path)) throw InputError(file, "file not found", "check the path given to --catalog");
+  check_fits_headers(path);
   fitsfile* raw = nullptr;
   int status = 0;
   if (fits_open_file(&raw, file.c_str(), READONLY, &status))

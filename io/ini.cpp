@@ -26,9 +26,9 @@ IniFile IniFile::parse(const std::string& text, const std::string& source) {
   int n = 0;
   while (std::getline(in, line)) {
     ++n;
-    const std::string where = source + ":" + std::to_string(n);
+    const std::string at = source + ":" + std::to_string(n);
     if (std::size_t bad = invalid_utf8_at(line); bad != std::string::npos)
-      throw InputError(where, "byte " + std::to_string(bad + 1) + " of the line is not valid UTF-8 text",
+      throw InputError(at, "byte " + std::to_string(bad + 1) + " of the line is not valid UTF-8 text",
                        "save the file as UTF-8 (or plain ASCII)");
     // A '#' or ';' at the start of the line or after a blank starts a comment.
     for (std::size_t p = 0; p < line.size(); ++p)
@@ -40,20 +40,20 @@ IniFile IniFile::parse(const std::string& text, const std::string& source) {
     if (t.empty()) continue;
     if (t.front() == '[') {
       if (t.back() != ']')
-        throw InputError(where, "section header '" + t + "' is not closed", "write it as [name]");
+        throw InputError(at, "section header '" + t + "' is not closed", "write it as [name]");
       section = trim(t.substr(1, t.size() - 2));
       ini.sections_.insert(section);
       continue;
     }
     auto eq = t.find('=');
     if (eq == std::string::npos)
-      throw InputError(where, "line '" + t + "' is not 'key = value'",
+      throw InputError(at, "line '" + t + "' is not 'key = value'",
                        "write one 'key = value' per line, or comment the line out with '#'");
     std::string name = trim(t.substr(0, eq));
-    if (name.empty()) throw InputError(where, "line '" + t + "' has no key before '='", "write it as 'key = value'");
+    if (name.empty()) throw InputError(at, "line '" + t + "' has no key before '='", "write it as 'key = value'");
     std::string key = (section.empty() ? "" : section + ".") + name;
     if (ini.values_.count(key))
-      throw InputError(where, "key '" + key + "' is given twice", "keep one of the two lines");
+      throw InputError(at, "key '" + key + "' is given twice", "keep one of the two lines");
     ini.values_[key] = {trim(t.substr(eq + 1)), n};
   }
   if (ini.values_.empty() && ini.sections_.empty())

@@ -12,6 +12,7 @@
 #include <memory>
 
 #include "astro/errors.hpp"
+#include "io/fits_check.hpp"
 #include "astro/time.hpp"
 #include "astro/units.hpp"
 #include "io/atomic_file.hpp"
@@ -377,6 +378,7 @@ Vis2Data read_oifits(const fs::path& path, const std::optional<std::string>& tar
   std::error_code ec;
   if (!fs::is_regular_file(path, ec))
     throw InputError(file, "no such file", "check the path");
+  check_fits_headers(path);
   fitsfile* raw = nullptr;
   int status = 0;
   fits_open_file(&raw, file.c_str(), READONLY, &status);

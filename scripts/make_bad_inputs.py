@@ -190,6 +190,10 @@ def catalog_fits_files():
     write("catalog-dec-out.fits", fits_bytes(table([fits.Column("name", "8A", array=names),
                                                     fits.Column("ra", "D", array=ra),
                                                     fits.Column("dec", "D", array=np.array([7.4, 95.0]))])))
+    # A column name that is not a quoted string (FITS 4.0 §7.3.2): cfitsio 4.2 would copy its 70 characters
+    # into a 70-byte buffer and abort; siiplan's own header check refuses it first.
+    i = data.index(b"TTYPE4  =")
+    write("catalog-unquoted-ttype.fits", data[:i] + b"TTYPE4  = " + b"x" * 70 + data[i + 80:])
     write("catalog-nan-ra.fits", fits_bytes(table([fits.Column("name", "8A", array=names),
                                                    fits.Column("ra", "D", array=np.array([np.nan, 95.9])),
                                                    fits.Column("dec", "D", array=dec)])))

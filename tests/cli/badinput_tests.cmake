@@ -106,6 +106,8 @@ bad_catalog(fits_no_table ${BAD}/catalog-no-table.fits "catalog-no-table.fits: n
 bad_catalog(fits_no_ra ${BAD}/catalog-no-ra.fits "catalog-no-ra.fits.TARGETS. columns: missing column 'ra'")
 bad_catalog(fits_numeric_name ${BAD}/catalog-numeric-name.fits "catalog-numeric-name.fits.TARGETS. column 'name': is numeric, but it must hold text \\(store it as a character column")
 bad_catalog(fits_dec_range ${BAD}/catalog-dec-out.fits "catalog-dec-out.fits.TARGETS. row 2: column 'dec': Dec '95' is beyond")
+bad_catalog(fits_unquoted_ttype ${BAD}/catalog-unquoted-ttype.fits
+            "catalog-unquoted-ttype.fits: HDU 2, header card 15: the value of TTYPE4 is not a quoted character string")
 bad_catalog(fits_nan_ra ${BAD}/catalog-nan-ra.fits "catalog-nan-ra.fits.TARGETS. row 1: column 'ra'")
 function(ok_catalog name file)
   siiplan_cli_test(NAME bad_catalog_ok_${name} EXIT 0 ARGS ${BAD_TRACKS} --catalog ${file} --target Alpha ${BAD_NIGHT} --format csv
@@ -145,6 +147,7 @@ bad_vis2(oifits_not_oifits ${BAD}/oifits-not-oifits.fits "oifits-not-oifits.fits
 bad_vis2(oifits_no_vis2 ${DATA}/astropy_no_vis2.oifits "astropy_no_vis2.oifits: no OI_VIS2 table")
 bad_vis2(oifits_nwave ${DATA}/astropy_bad_nwave.oifits "astropy_bad_nwave.oifits: HDU 5 \\(OI_VIS2\\): column VIS2DATA holds 3 values per row where 2 are expected")
 bad_vis2(oifits_wrong_type ${DATA}/astropy_bad_type.oifits "astropy_bad_type.oifits: HDU 5 \\(OI_VIS2\\): column VIS2DATA has the wrong type")
+bad_vis2(oifits_unquoted_ttype ${BAD}/catalog-unquoted-ttype.fits "catalog-unquoted-ttype.fits: HDU 2, header card 15: the value of TTYPE4")
 bad_vis2(oifits_truncated ${BAD}/oifits-truncated.oifits "oifits-truncated.oifits: .*truncated")
 
 # Correlation files (read by reduce) and night plans (read by simulate)
