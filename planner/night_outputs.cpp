@@ -196,9 +196,9 @@ std::string summary_header(const NightInputs& in, const NightPlan& plan) {
     << astro::format_utc(g.dark_start_utc) << " to " << astro::format_utc(g.dark_end_utc) << ", " << g.n_slots << " slots of "
     << fmt("%g", g.slot_s / 60) << " min; Moon " << fmt("%.0f", 100 * g.moon_illuminated_fraction) << "% illuminated.\n"
     << observable << " of " << plan.targets.size() << " targets observable; " << r.plan.blocks.size() << " blocks planned.\n"
-    << "Goals met: plan " << met_plan << " (priority-weighted " << fmt("%g", r.plan.objective.met) << ", information score "
+    << "Goals met: plan " << met_plan << " (priority-weighted " << fmt("%g", r.plan.objective.met) << ", partial progress on unmet goals "
     << fmt("%.3f", r.plan.objective.info) << "); simple schedule " << met_simple << " (priority-weighted "
-    << fmt("%g", r.baseline.objective.met) << ", information score " << fmt("%.3f", r.baseline.objective.info) << ").\n";
+    << fmt("%g", r.baseline.objective.met) << ", partial progress on unmet goals " << fmt("%.3f", r.baseline.objective.info) << ").\n";
   return s.str();
 }
 
