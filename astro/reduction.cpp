@@ -6,7 +6,9 @@
 
 #include <Eigen/Dense>
 
+#include "astro/correlation.hpp"
 #include "astro/errors.hpp"
+#include "astro/sensitivity.hpp"
 #include "astro/units.hpp"
 
 namespace siiplan::astro {
@@ -428,7 +430,8 @@ Reduction reduce_correlations(const CorrelationSet& data, const ReduceOptions& o
         if (!(m.zero_baseline_s > 0))
           throw InputError("run " + m.telescope_1.name + "-" + m.telescope_2.name + " " + m.target_name,
                            "the file records no zero-baseline correlation",
-                           "supply one with --zero-baseline-ps or measure it with --calibrator");
+                           "supply one with --zero-baseline-ps, measure it with --calibrator, or use "
+                           "--zero-baseline-nominal and fit the normalisation");
         a0[r] = m.zero_baseline_s;
         a0_err[r] = std::isfinite(m.zero_baseline_err_s) ? m.zero_baseline_err_s : 0.0;
       }
@@ -437,6 +440,21 @@ Reduction reduce_correlations(const CorrelationSet& data, const ReduceOptions& o
       red.zero_baseline_source = "supplied";
       std::fill(a0.begin(), a0.end(), zero.value_s);
       std::fill(a0_err.begin(), a0_err.end(), std::isfinite(zero.err_s) ? zero.err_s : 0.0);
+      break;
+    case ZeroBaselineSpec::Source::Nominal:
+      red.zero_baseline_source = "nominal tau_c/2 of each filter (uncalibrated: fit the normalisation c0)";
+      for (std::size_t r = 0; r < data.runs.size(); ++r) {
+        const auto& m = data.runs[r].meta;
+        Instrument filter;
+        filter.lambda_m = m.lambda_m;
+        filter.bandwidth_m = m.bandwidth_m;
+        filter.profile = m.profile;
+        a0[r] = bunching_area_s(1.0, coherence_time_s(filter), 1.0);
+        a0_err[r] = 0.0;
+        if (!(a0[r] > 0) || !std::isfinite(a0[r]))
+          throw InputError("run " + m.telescope_1.name + "-" + m.telescope_2.name + " " + m.target_name,
+                           "the recorded filter (bandwidth_m) gives no coherence time", "check the file's bandwidth_m");
+      }
       break;
     case ZeroBaselineSpec::Source::Calibrator: {
       red.zero_baseline_source = "calibrator " + zero.calibrator;

@@ -49,7 +49,9 @@ struct ReduceOptions {
 };
 
 struct ZeroBaselineSpec {
-  enum class Source { File, Supplied, Calibrator } source = Source::File;
+  // Nominal: tau_c/2 of each run's filter (models.md §1.9 with c0 = 1), no calibration at all: the
+  // |V|^2 then carry the unknown zero-baseline factor c0, to be fitted (instrument zero_baseline = free).
+  enum class Source { File, Supplied, Calibrator, Nominal } source = Source::File;
   double value_s = NAN, err_s = NAN;            // Supplied
   std::string calibrator;                       // Calibrator: target name in the file
   Model calibrator_model{ModelKind::UniformDisk, {1e-12}};
@@ -83,7 +85,7 @@ struct RunSummary {
 struct Reduction {
   std::vector<Vis2Point> points;
   std::vector<RunSummary> runs;
-  std::string zero_baseline_source;   // "file", "supplied", "calibrator NAME"
+  std::string zero_baseline_source;   // "file", "supplied", "calibrator NAME", "nominal ..."
 };
 
 // Reduces every run. Throws InputError when no zero-baseline correlation is available (the file has

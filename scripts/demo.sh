@@ -21,8 +21,9 @@ done
 if [ "${DEMO_CHAIN:-0}" = 1 ]; then
   "$bin" simulate demo-out/night-large/plan.h5 --seed 1 --timing-offset Birch:8 --cloud 120:135:0.1 \
     --drop-telescope Elm:200:230 -o demo-out/corr-large.h5
-  "$bin" reduce demo-out/corr-large.h5 -o demo-out/vis2-large.oifits --csv demo-out/vis2-large.csv \
-    > demo-out/reduce-large.txt
-  "$bin" fit demo-out/vis2-large.oifits --target Kelvane > demo-out/fit-kelvane.txt
+  # instrument-large.ini has zero_baseline = free: no calibration recorded, c0 is fitted with the diameter
+  "$bin" reduce demo-out/corr-large.h5 --zero-baseline-nominal -o demo-out/vis2-large.oifits \
+    --csv demo-out/vis2-large.csv > demo-out/reduce-large.txt
+  "$bin" fit demo-out/vis2-large.oifits --target Kelvane --free-norm > demo-out/fit-kelvane.txt
   echo "Simulated and reduced night: demo-out/reduce-large.txt; fit of Kelvane: demo-out/fit-kelvane.txt"
 fi

@@ -118,9 +118,12 @@ int run_reduce(const po::variables_map& vm) {
     throw InputError("--rate-drop", "must be in [0, 1)", "e.g. --rate-drop 0.5");
   if (given(vm, "offset-search-ns")) ro.offset_search_s = positive_option(vm, "offset-search-ns", "") * 1e-9;
   ZeroBaselineSpec zero;
-  if (given(vm, "zero-baseline-ps") && given(vm, "calibrator"))
-    throw InputError("--calibrator", "give either --zero-baseline-ps or --calibrator", "one source of the zero-baseline correlation");
-  if (given(vm, "zero-baseline-ps")) {
+  if (int(given(vm, "zero-baseline-ps")) + int(given(vm, "calibrator")) + int(vm.count("zero-baseline-nominal") > 0) > 1)
+    throw InputError("--calibrator", "give only one of --zero-baseline-ps, --calibrator and --zero-baseline-nominal",
+                     "one source of the zero-baseline correlation");
+  if (vm.count("zero-baseline-nominal")) {
+    zero.source = ZeroBaselineSpec::Source::Nominal;
+  } else if (given(vm, "zero-baseline-ps")) {
     zero.source = ZeroBaselineSpec::Source::Supplied;
     zero.value_s = positive_option(vm, "zero-baseline-ps", "") * 1e-12;
     zero.err_s = number_or(vm, "zero-baseline-err-ps", 0.0) * 1e-12;
@@ -159,6 +162,8 @@ void describe_reduce(po::options_description& desc) {
       ("zero-baseline-ps", po::value<std::string>(), "zero-baseline correlation (peak area at |V|^2 = 1) in ps, instead of the file's")
       ("zero-baseline-err-ps", po::value<std::string>(), "its 1-sigma error in ps (a correlated error)")
       ("calibrator", po::value<std::string>(), "measure the zero-baseline correlation on this target of the file")
+      ("zero-baseline-nominal", "no calibration: divide by the filter's tau_c/2, so |V|^2 carry the unknown factor c0 "
+                                "(then 'siiplan fit --free-norm')")
       ("calibrator-diameter-mas", po::value<std::string>(), "the calibrator's uniform-disk diameter (default: unresolved)");
 }
 
@@ -173,6 +178,8 @@ const Register reg{Command{
     "known Gaussian response (one-parameter least squares, error from the off-peak scatter); divide by\n"
     "the zero-baseline correlation (from the file, --zero-baseline-ps, or --calibrator). Its error is\n"
     "common to all points: it is reported in the summary, not added to VIS2ERR (fit with a c0 prior).\n"
+    "Without any calibration (instrument zero_baseline = free) --zero-baseline-nominal divides by the\n"
+    "filter's tau_c/2 and the fit takes the normalisation c0 as a free parameter (--free-norm).\n"
     "Flagged chunks are written with FLAG = T and listed with the reason.\n\n"
     "Example:\n"
     "  siiplan reduce corr.h5 -o vis2.oifits --csv vis2.csv",

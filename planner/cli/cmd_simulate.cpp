@@ -192,6 +192,9 @@ int run_simulate(const po::variables_map& vm) {
     runs = runs_from_options(site, tel, inst, target, model, span, &dubious);
   }
   if (runs.empty()) throw InputError("simulate", "nothing to simulate: no usable block or pair", "check the plan or the time span");
+  // An instrument without a zero-baseline calibration (zero_baseline = free) records none, unless asked.
+  const bool uncalibrated = inst.zero_baseline == ZeroBaseline::Free && !given(vm, "zero-baseline-error-pct");
+  if (uncalibrated) so.zero_baseline_error = -1;
   so.faults = read_faults(vm, runs.front().start_mjd);
   CorrelationSet set = simulate_correlations(site, inst, runs, so, &dubious);
   warn_dubious_year(dubious);
@@ -202,6 +205,9 @@ int run_simulate(const po::variables_map& vm) {
   std::cout << "wrote " << out << ": " << set.runs.size() << " runs (pair x target), " << frames << " frames of "
             << so.frame_s << " s, " << (set.runs.empty() ? 0 : set.runs.front().delay.bins) << " delay bins"
             << (so.track_delay_online ? " (delay tracked online)" : "") << "\n";
+  if (uncalibrated)
+    std::cout << "no zero-baseline correlation recorded (instrument: zero_baseline = free): reduce with "
+                 "--zero-baseline-nominal and fit with --free-norm\n";
   return 0;
 }
 
@@ -215,7 +221,7 @@ void describe_simulate(po::options_description& desc) {
       ("bin-ps", po::value<std::string>(), "delay bin width in ps (default: timing FWHM / 4)")
       ("untracked", "record without online delay tracking: the peak follows the geometric delay")
       ("zero-baseline-factor", po::value<std::string>(), "true zero-baseline correlation relative to tau_c/2 (default 1)")
-      ("zero-baseline-error-pct", po::value<std::string>(), "1-sigma error of the recorded zero-baseline value in % (default 0; negative: record none)")
+      ("zero-baseline-error-pct", po::value<std::string>(), "1-sigma error of the recorded zero-baseline value in % (default 0; negative: record none; default with zero_baseline = free: none)")
       ("mag", po::value<std::string>(), "without a plan: the star's magnitude in the instrument's band")
       ("instrument", po::value<std::string>(), "without a plan: instrument file (INI)")
       ("drop-telescope", po::value<std::vector<std::string>>()->composing(), "fault: NAME:START_MIN:END_MIN, the telescope loses the star (repeatable)")

@@ -9,6 +9,7 @@
 #include "astro/errors.hpp"
 #include "astro/fit.hpp"
 #include "astro/reduction.hpp"
+#include "astro/sensitivity.hpp"
 #include "astro/units.hpp"
 #include "support/close.hpp"
 
@@ -179,6 +180,39 @@ TEST_CASE("closure: simulate -> reduce -> fit recovers the diameter, pulls ~ N(0
   CHECK(std::fabs(mean) <= 0.2);   // acceptance of the closure requirement (N(0,1) pulls)
   CHECK(sd >= 0.8);
   CHECK(sd <= 1.2);
+}
+
+TEST_CASE("uncalibrated data (zero_baseline = free): nominal normalisation, c0 fitted with the diameter") {
+  // True zero-baseline factor 0.7, none recorded. Dividing by the filter's tau_c/2 (models.md §1.9) gives
+  // c0 |V|^2, and a fit with c0 free recovers both; the file alone cannot be calibrated.
+  const Model truth(ModelKind::UniformDisk, {1.0 * kMasToRad});
+  const Instrument in = test_instrument();
+  SimOptions so;
+  so.frame_s = 10;
+  so.window_bins = 48;
+  so.seed = 11;
+  so.zero_baseline_factor = 0.7;
+  so.zero_baseline_error = -1;
+  const CorrelationSet data = simulate_correlations(test_site(), in, test_runs(truth, 1.5e-5, 1.0), so);
+  ReduceOptions ro;
+  ro.chunk_s = 600;
+  CHECK_THROWS_AS(reduce_correlations(data, ro, ZeroBaselineSpec{}), siiplan::InputError);
+  ZeroBaselineSpec nominal;
+  nominal.source = ZeroBaselineSpec::Source::Nominal;
+  const Reduction red = reduce_correlations(data, ro, nominal);
+  REQUIRE(!red.runs.empty());
+  check_close(red.runs[0].zero_baseline_s, 0.5 * coherence_time_s(in), 1e-15, 0, "A0 = tau_c/2");
+  std::vector<Vis2Measurement> m;
+  for (const auto& p : red.points) m.push_back({p.u_m, p.v_m, in.lambda_m, p.vis2, p.vis2_err, p.mjd});
+  FitOptions fo;
+  fo.norm.mode = NormMode::Free;
+  const FitResult fit = fit_vis2(m, fo);
+  REQUIRE(fit.usable());
+  INFO("theta " << fit.params[0].value / kMasToRad << " +- " << fit.params[0].error / kMasToRad << " mas, c0 "
+                << fit.norm() << " +- " << fit.params.back().error);
+  CHECK(std::fabs(fit.params[0].value - truth.diameter_rad()) <= 4 * fit.params[0].error);
+  CHECK(std::fabs(fit.norm() - 0.7) <= 4 * fit.params.back().error);
+  CHECK(fit.params.back().error < 0.1);
 }
 
 TEST_CASE("closure: the reduced SNR matches astro::sigma_vis2 within 10 %") {

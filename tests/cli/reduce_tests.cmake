@@ -7,12 +7,22 @@ siiplan_cli_test(NAME simulate_explicit EXIT 0
        --ra 10:00:00 --dec -30 --mag 1.0 --diameter-mas 0.3 --start 2026-03-15T03:00 --end 2026-03-15T04:00
        --frame-s 5 --seed 3 --timing-offset Birch:8 --spurious Alder-Cedar:-15:0.04 --cloud 40:45:0.1
        -o ${OUT}/reduce_chain.h5
-  STDOUT "wrote .*reduce_chain.h5: [0-9]+ runs")
+  STDOUT "wrote .*reduce_chain.h5: [0-9]+ runs.*no zero-baseline correlation recorded \\(instrument: zero_baseline = free\\)")
 set_tests_properties("cli: simulate_explicit" PROPERTIES FIXTURES_SETUP reduce_chain)
 siiplan_cli_test(NAME reduce_chain EXIT 0
-  ARGS reduce ${OUT}/reduce_chain.h5 -o ${OUT}/reduce_chain.oifits --csv ${OUT}/reduce_chain.csv
+  ARGS reduce ${OUT}/reduce_chain.h5 --zero-baseline-nominal -o ${OUT}/reduce_chain.oifits --csv ${OUT}/reduce_chain.csv
   STDOUT "Alder-Birch [^\n]*rejected for rate drops 60;[^\n]*offset -7\\.9[0-9]+ ns \\(SNR [0-9.]+, applied\\).*Alder-Cedar [^\n]*spurious structure at -1[45]\\.[0-9]+ ns")
 set_tests_properties("cli: reduce_chain" PROPERTIES FIXTURES_REQUIRED reduce_chain)
+# instrument-large.ini has zero_baseline = free: simulate records no zero-baseline correlation, so reduce
+# needs a source and says which.
+siiplan_cli_test(NAME reduce_uncalibrated_needs_source EXIT 2
+  ARGS reduce ${OUT}/reduce_chain.h5 -o ${OUT}/reduce_uncalibrated.oifits
+  STDERR "the file records no zero-baseline correlation \\(.*--zero-baseline-nominal and fit the normalisation\\)"
+  ABSENT ${OUT}/reduce_uncalibrated.oifits)
+set_tests_properties("cli: reduce_uncalibrated_needs_source" PROPERTIES FIXTURES_REQUIRED reduce_chain)
+siiplan_cli_test(NAME reduce_two_zero_baseline_sources EXIT 2
+  ARGS reduce ${OUT}/reduce_chain.h5 --zero-baseline-nominal --zero-baseline-ps 0.03 -o ${OUT}/reduce_two.oifits
+  STDERR "give only one of --zero-baseline-ps, --calibrator and --zero-baseline-nominal" ABSENT ${OUT}/reduce_two.oifits)
 
 # A valid file written by another program (h5py) following the documented layout.
 siiplan_cli_test(NAME reduce_h5py_file EXIT 0
