@@ -1,5 +1,6 @@
 #include "io/fits_check.hpp"
 
+#include <algorithm>
 #include <array>
 #include <cctype>
 #include <fstream>
@@ -51,26 +52,33 @@ std::optional<long long> integer_value(const std::string& value) {
 void check_fits_headers(const std::filesystem::path& path) {
   std::ifstream in(path, std::ios::binary);
   std::array<char, kCard> card{};
-  if (!in.read(card.data(), kCard) || std::string(card.data(), 9) != "SIMPLE  =") return;
+  if (!in.read(card.data(), kCard) || std::string(card.data(), 6) != "SIMPLE") return;
   in.seekg(0);
   const std::string file = path.string();
   long long offset = 0;
   for (int hdu = 1;; ++hdu) {
-    long long bitpix = 0, naxis = 0, pcount = 0, gcount = 1, product = 1;
+    long long bitpix = 0, naxis = -1, pcount = 0, gcount = 1, product = 1;
+    bool unreadable_size = false;   // a size keyword without an integer: cfitsio will refuse the HDU
     int n = 0;
     for (;;) {
       if (!in.read(card.data(), kCard)) return;   // EOF inside a header: cfitsio reports it
       ++n;
       const std::string text(card.data(), kCard);
-      const std::string keyword = trim(text.substr(0, 8));
-      if (keyword == "END") break;
-      if (text.compare(8, 1, "=") != 0) continue;
-      const std::string value = text.substr(9);
+      if (trim(text.substr(0, 8)) == "END") break;
+      // As cfitsio takes them: the keyword ends at the 8th column or at an earlier '='; the value follows
+      // the first '=' wherever it stands (a non-standard card is judged as cfitsio might read it).
+      const std::size_t eq = text.find('=');
+      if (eq == std::string::npos) continue;
+      const std::string keyword = trim(text.substr(0, std::min<std::size_t>(eq, 8)));
+      const std::string value = text.substr(eq + 1);
       if (must_be_text(keyword) && trim(value).rfind('\'', 0) != 0)
         throw InputError(file + ": HDU " + std::to_string(hdu) + ", header card " + std::to_string(n),
                          "the value of " + keyword + " is not a quoted character string",
                          "such a file is not valid FITS, see the FITS standard 4.0 §7.3.2; write it again with a FITS library");
       const auto number = integer_value(value);
+      const bool size_keyword = keyword == "BITPIX" || keyword == "NAXIS" || keyword == "PCOUNT" ||
+                                keyword == "GCOUNT" || is_indexed(keyword, "NAXIS");
+      if (size_keyword && !number) unreadable_size = true;
       if (keyword == "BITPIX" && number) bitpix = *number;
       else if (keyword == "NAXIS" && number) naxis = *number;
       else if (keyword == "PCOUNT" && number) pcount = *number;
@@ -80,6 +88,7 @@ void check_fits_headers(const std::filesystem::path& path) {
         product *= *number;
       }
     }
+    if (unreadable_size || naxis < 0) return;   // the next HDU cannot be found; cfitsio reports this one
     const long long header_bytes = (static_cast<long long>(n) * kCard + kBlock - 1) / kBlock * kBlock;
     if (naxis == 0) product = 0;
     const long long word = (bitpix < 0 ? -bitpix : bitpix) / 8;

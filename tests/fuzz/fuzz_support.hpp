@@ -20,18 +20,11 @@ inline std::string text(const uint8_t* data, size_t size) {
 }
 
 // The bytes written to a private temporary file with the given extension (for readers that take a
-// path: cfitsio, HDF5, the measurement CSV); removed again when the object goes out of scope. The name
-// holds the process id at a fixed width, so that messages naming the file have the same length in every
-// process (a seeded run then takes the same path through the code on every machine).
-inline std::string temp_name(const std::string& extension) {
-  char pid[24];
-  std::snprintf(pid, sizeof pid, "%010ld", static_cast<long>(::getpid()));
-  return std::string("siiplan-fuzz-") + pid + extension;
-}
+// path: cfitsio, HDF5, the measurement CSV); removed again when the object goes out of scope.
 class TempFile {
  public:
   TempFile(const uint8_t* data, size_t size, const std::string& extension)
-      : path_(std::filesystem::temp_directory_path() / temp_name(extension)) {
+      : path_(std::filesystem::temp_directory_path() / ("siiplan-fuzz-" + std::to_string(::getpid()) + extension)) {
     std::ofstream(path_, std::ios::binary | std::ios::trunc).write(reinterpret_cast<const char*>(data), std::streamsize(size));
   }
   ~TempFile() {
