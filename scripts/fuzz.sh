@@ -46,8 +46,10 @@ for name in "${harnesses[@]}"; do
     [ -e "$f" ] || continue
     trace=$("build-fuzz/tests/fuzz/$name" -timeout=10 -rss_limit_mb=2048 -malloc_limit_mb=512 "$f" 2>&1 || true)
     summary=$(grep -m 1 -E '^SUMMARY' <<<"$trace" || true)
-    frame=$(grep -E '^ +#[0-9]+ 0x' <<<"$trace" | grep -vE 'sanitizer|interceptor|fuzzer::' \
-              | grep -E 'lib(hdf5|cfitsio)|/(astro|io|planner|tests)/' | head -n 1 || true)
+    # (our frames by their source file, so that an allocator frame in the harness binary does not count)
+    frame=$(grep -E '^ +#[0-9]+ 0x' <<<"$trace" \
+              | grep -vE 'sanitizer|interceptor|fuzzer::| in (malloc|calloc|realloc|free|operator (new|delete))' \
+              | grep -E 'lib(hdf5|cfitsio)|/(astro|io|planner|tests)/[^ ]*\.(cpp|hpp):[0-9]' | head -n 1 || true)
     if grep -qE 'libhdf5|libcfitsio' <<<"$frame"; then
       echo "   third-party finding $f: $summary in $(grep -oE 'lib(hdf5|cfitsio)[^ )]*' <<<"$frame" | head -n 1)"
     elif [ -n "$summary" ]; then
