@@ -3,6 +3,7 @@
 #include <cmath>
 #include <ostream>
 
+#include "astro/aperture_average.hpp"
 #include "astro/band_average.hpp"
 #include "astro/coherence.hpp"
 #include "astro/errors.hpp"
@@ -45,6 +46,7 @@ int run_curve(const po::variables_map& vm) {
     throw InputError("--bandwidth-nm", "is not smaller than the wavelength", "give a filter width well below --wavelength-nm");
   filter.profile = filter_profile(vm);
   const double pa_rad = number_or(vm, "baseline-pa-deg", 0.0) * kDegToRad;
+  const double mirror_m = given(vm, "mirror-diameter-m") ? positive_option(vm, "mirror-diameter-m", "") : 0.0;
   const io::Format format = output_format(vm);
 
   // Characteristic baselines of the monochromatic model at the central wavelength.
@@ -64,6 +66,9 @@ int run_curve(const po::variables_map& vm) {
     if (!std::isfinite(stop)) stop = 4 * half_m;
     for (int i = 0; i <= 200; ++i) baselines.push_back(stop * i / 200.0);
   }
+  if (mirror_m > 0 && baselines.size() > 20'000)
+    throw InputError("--baselines-m", "more than 20000 baselines with --mirror-diameter-m",
+                     "aperture averaging is a quadrature per baseline: give a coarser step");
   std::vector<Row> rows;
   for (double b : baselines) rows.push_back({b, ""});
   const double lo = *std::min_element(baselines.begin(), baselines.end());
@@ -79,9 +84,12 @@ int run_curve(const po::variables_map& vm) {
   table.add_column("baseline_m", 8);
   table.add_column("vis2", 8);
   if (band) table.add_column("vis2_monochromatic", 8);
+  if (mirror_m > 0) table.add_column("vis2_mirrors", 8);
   table.add_column("note");
   io::PlotSeries curve{band ? "band-averaged" : "", {}, {}, {}, io::PlotSeries::Style::Line, "#1f5fa8", false};
   io::PlotSeries mono{"monochromatic", {}, {}, {}, io::PlotSeries::Style::Line, "#777777", true};
+  io::PlotSeries mirrors{"two " + io::format_number(mirror_m, 4) + " m mirrors (monochromatic)", {}, {}, {},
+                         io::PlotSeries::Style::Line, "#c2410c", false};
   for (const auto& r : rows) {
     const double u_m = r.baseline_m * su, v_m = r.baseline_m * sv;
     const double v2 = band_averaged_vis2(model, u_m, v_m, filter);
@@ -91,6 +99,12 @@ int run_curve(const po::variables_map& vm) {
       cells.push_back(m);
       mono.x.push_back(r.baseline_m);
       mono.y.push_back(m);
+    }
+    if (mirror_m > 0) {
+      const double a = aperture_averaged_vis2(model, u_m, v_m, filter.lambda_m, mirror_m, mirror_m);
+      cells.push_back(a);
+      mirrors.x.push_back(r.baseline_m);
+      mirrors.y.push_back(a);
     }
     cells.push_back(r.note);
     table.add_row(std::move(cells));
@@ -109,7 +123,14 @@ int run_curve(const po::variables_map& vm) {
     out << "Model: " << title << "\n";
     out << "First null: " << (std::isfinite(null_m) ? io::format_number(null_m, 10) + " m" : std::string("none"))
         << ";  |V|^2 = 0.5 at: " << (std::isfinite(half_m) ? io::format_number(half_m, 10) + " m" : std::string("not reached"))
-        << "  (monochromatic, at the central wavelength)\n\n";
+        << "  (monochromatic, at the central wavelength)\n";
+    if (mirror_m > 0) {
+      const ApertureEffect e = aperture_effect(model, filter.lambda_m, mirror_m, mirror_m);
+      out << "Mirrors of " << io::format_number(mirror_m, 6) << " m: zero-baseline |V|^2 " << io::format_number(e.vis2_zero_baseline, 6)
+          << (e.matters ? "; single mirrors partly resolve the star (use vis2_mirrors)\n"
+                        : "; aperture averaging stays below 1 %\n");
+    }
+    out << "\n";
     table.write(out, io::Format::Table);
   });
 
@@ -122,6 +143,7 @@ int run_curve(const po::variables_map& vm) {
     p.y_max = 1;
     p.series.push_back(std::move(curve));
     if (band) p.series.push_back(std::move(mono));
+    if (mirror_m > 0) p.series.push_back(std::move(mirrors));
     if (std::isfinite(half_m) && half_m >= lo && half_m <= hi)
       p.markers.push_back({half_m, "half power " + io::format_number(half_m, 4) + " m", true, "#2b8a3e"});
     if (std::isfinite(null_m) && null_m >= lo && null_m <= hi)
@@ -149,7 +171,10 @@ const Register reg{Command{
     "bandwidth) with weight T^2, as the correlation is a second-order quantity; the monochromatic value at\n"
     "the central wavelength is shown beside it. The first null and the |V|^2 = 0.5 baseline (of the\n"
     "monochromatic model, along --baseline-pa-deg) get rows of their own, marked in the 'note' column, and\n"
-    "vertical markers in the --plot chart. Default baselines: 0 to twice the first null in 200 steps.\n\n"
+    "vertical markers in the --plot chart. Default baselines: 0 to twice the first null in 200 steps.\n"
+    "With --mirror-diameter-m D, the column vis2_mirrors gives the monochromatic |V|^2 averaged over two\n"
+    "filled circular mirrors of diameter D (every pair of points, one on each mirror; models.md §1.9), and\n"
+    "the header says whether single mirrors partly resolve the star (zero-baseline loss above 1 %).\n\n"
     "Example (a 1 mas uniform disk at 420 nm; mpmath gives the first null at 105.661488999 m and half power\n"
     "at 44.5715007872 m):\n"
     "  siiplan curve --model ud --diameter-mas 1 --wavelength-nm 420 --baselines-m 0:120:20\n"
@@ -160,7 +185,7 @@ const Register reg{Command{
     "         100   0.0021684476\n"
     "   105.66149  1.5691938e-32  first null\n"
     "         120   0.0074786431\n"
-    "CSV columns: baseline_m, vis2, [vis2_monochromatic,] note.",
+    "CSV columns: baseline_m, vis2, [vis2_monochromatic,] [vis2_mirrors,] note.",
     {},
     [](po::options_description& desc) {
       add_model_options(desc);
@@ -169,7 +194,8 @@ const Register reg{Command{
           ("bandwidth-nm", po::value<std::string>(), "filter full width in nm (FWHM for gaussian); default 0 = monochromatic")
           ("filter-profile", po::value<std::string>()->default_value("tophat"), "filter transmission: tophat or gaussian")
           ("baselines-m", po::value<std::string>(), "projected baselines in m: START:STOP:STEP or a comma list")
-          ("baseline-pa-deg", po::value<std::string>(), "baseline position angle in degrees, North through East (ellipse, binary); default 0");
+          ("baseline-pa-deg", po::value<std::string>(), "baseline position angle in degrees, North through East (ellipse, binary); default 0")
+          ("mirror-diameter-m", po::value<std::string>(), "also |V|^2 averaged over two mirrors of this diameter (aperture averaging)");
       add_output_options(desc, true);
     },
     run_curve}};

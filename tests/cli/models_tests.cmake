@@ -19,6 +19,19 @@ siiplan_cli_test(NAME curve_ellipse_pa EXIT 0
 siiplan_cli_test(NAME curve_binary EXIT 0
   ARGS curve --model binary --diameter-mas 1 --companion-diameter-mas 0.5 --flux-ratio 0.3 --separation-mas 5.8309518948453 --companion-pa-deg 120.963756532 --baseline-pa-deg 68.1985905136 --wavelength-nm 420 --baselines-m 53.8516480713 --format csv
   STDOUT "\n53\\.8516480713,0\\.31519246[0-9]*,\n")
+# Aperture averaging, models.md §1.9: two 12 m mirrors, UD 0.5 mas at 420 nm: <|V|^2>(0) = 0.99704
+# (Monte Carlo 0.99705); UD 5 mas: 0.757 (Monte Carlo), the quadrature gives 0.756960.
+siiplan_cli_test(NAME curve_mirrors EXIT 0
+  ARGS curve --model ud --diameter-mas 0.5 --wavelength-nm 420 --baselines-m 0,50 --mirror-diameter-m 12 --format csv
+  STDOUT "^baseline_m,vis2,vis2_mirrors,note
+0,1,0\\.99704[0-9]*,
+50,")
+siiplan_cli_test(NAME curve_mirrors_matter EXIT 0
+  ARGS curve --model ud --diameter-mas 5 --wavelength-nm 420 --baselines-m 0 --mirror-diameter-m 12
+  STDOUT "Mirrors of 12 m: zero-baseline .V.\\^2 0\\.75696[0-9]*; single mirrors partly resolve the star")
+siiplan_cli_test(NAME curve_mirrors_zero EXIT 2
+  ARGS curve --diameter-mas 1 --wavelength-nm 420 --mirror-diameter-m 0 -o ${OUT}/bad.csv
+  STDERR "--mirror-diameter-m" ABSENT ${OUT}/bad.csv)
 
 # Bad input: exit 2, a message naming the option, no output file.
 siiplan_cli_test(NAME curve_zero_diameter EXIT 2
