@@ -20,11 +20,6 @@ namespace {
 
 using astro::kDegToRad;
 
-std::string trim(std::string_view s) {
-  auto b = s.find_first_not_of(" \t");
-  auto e = s.find_last_not_of(" \t");
-  return b == std::string_view::npos ? std::string() : std::string(s.substr(b, e - b + 1));
-}
 
 // "a:b:c" or "a b c" (2 or 3 fields) -> the fields and the leading sign; nullopt when not sexagesimal.
 struct Sexagesimal {
@@ -33,13 +28,13 @@ struct Sexagesimal {
   double third = 0;
 };
 std::optional<Sexagesimal> split_sexagesimal(std::string_view text, bool& malformed) {
-  std::string s = trim(text);
+  std::string s = trimmed(text);
   malformed = false;
   if (s.find_first_of(": ") == std::string::npos) return std::nullopt;
   Sexagesimal out;
   if (!s.empty() && (s[0] == '+' || s[0] == '-')) {
     out.sign = s[0];
-    s = trim(s.substr(1));
+    s = trimmed(s.substr(1));
   }
   std::vector<std::string> parts;
   std::string cur;
@@ -87,13 +82,13 @@ double parse_ra_rad(std::string_view text, const std::string& where) {
   if (auto sx = split_sexagesimal(text, malformed)) {
     double rad = 0;
     if (sx->sign == '-' || eraTf2a('+', sx->first, sx->second, sx->third, &rad) != 0)
-      throw InputError(where, "RA '" + trim(text) + "' is out of range (hours 0-23, minutes and seconds 0-59)", hint);
+      throw InputError(where, "RA '" + trimmed(text) + "' is out of range (hours 0-23, minutes and seconds 0-59)", hint);
     return rad;
   }
-  if (malformed) throw InputError(where, "RA '" + trim(text) + "' is not an angle", hint);
+  if (malformed) throw InputError(where, "RA '" + trimmed(text) + "' is not an angle", hint);
   auto deg = parse_number(text);
-  if (!deg) throw InputError(where, "RA '" + trim(text) + "' is not an angle", hint);
-  if (*deg < 0 || *deg >= 360) throw InputError(where, "RA " + trim(text) + " deg is outside 0 .. 360", hint);
+  if (!deg) throw InputError(where, "RA '" + trimmed(text) + "' is not an angle", hint);
+  if (*deg < 0 || *deg >= 360) throw InputError(where, "RA " + trimmed(text) + " deg is outside 0 .. 360", hint);
   return *deg * kDegToRad;
 }
 
@@ -103,15 +98,15 @@ double parse_dec_rad(std::string_view text, const std::string& where) {
   double rad = 0;
   if (auto sx = split_sexagesimal(text, malformed)) {
     if (eraAf2a(sx->sign, sx->first, sx->second, sx->third, &rad) != 0)
-      throw InputError(where, "Dec '" + trim(text) + "' is out of range (minutes and seconds 0-59)", hint);
+      throw InputError(where, "Dec '" + trimmed(text) + "' is out of range (minutes and seconds 0-59)", hint);
   } else {
-    if (malformed) throw InputError(where, "Dec '" + trim(text) + "' is not an angle", hint);
+    if (malformed) throw InputError(where, "Dec '" + trimmed(text) + "' is not an angle", hint);
     auto deg = parse_number(text);
-    if (!deg) throw InputError(where, "Dec '" + trim(text) + "' is not an angle", hint);
+    if (!deg) throw InputError(where, "Dec '" + trimmed(text) + "' is not an angle", hint);
     rad = *deg * kDegToRad;
   }
   if (std::fabs(rad) > astro::kPi / 2 * (1 + 1e-15))
-    throw InputError(where, "Dec '" + trim(text) + "' is beyond +-90 degrees", hint);
+    throw InputError(where, "Dec '" + trimmed(text) + "' is beyond +-90 degrees", hint);
   return rad;
 }
 

@@ -9,6 +9,7 @@
 #include <string>
 
 #include "astro/errors.hpp"
+#include "io/csv.hpp"
 #include "io/fits_check.hpp"
 #include "io/catalog.hpp"
 #include "io/table.hpp"
@@ -55,11 +56,6 @@ std::string find_table(fitsfile* f, const std::string& file) {
   throw InputError(file, "no binary table in this FITS file", "write the catalog as a BINTABLE extension (or as CSV)");
 }
 
-std::string trim(const std::string& s) {
-  auto b = s.find_first_not_of(' ');
-  auto e = s.find_last_not_of(' ');
-  return b == std::string::npos ? std::string() : s.substr(b, e - b + 1);
-}
 
 }  // namespace
 
@@ -104,11 +100,11 @@ std::vector<astro::Target> read_catalog_fits(const std::filesystem::path& path) 
     long repeat = 0;
     fits_get_eqcoltype(raw, c, &type[std::size_t(c)], &repeat, &width[std::size_t(c)], &status);
     if (status) throw InputError(source, "column " + std::to_string(c) + ": " + fits_message(status), "check the table header");
-    const std::string column = lower(trim(name));
+    const std::string column = lower(trimmed(name));
     if ((column == "name" || column == "model") && type[std::size_t(c)] != TSTRING)
-      throw InputError(source + " column '" + trim(name) + "'", "is numeric, but it must hold text",
+      throw InputError(source + " column '" + trimmed(name) + "'", "is numeric, but it must hold text",
                        "store it as a character column (TFORM nA)");
-    text += (c > 1 ? "," : "") + csv_escape(trim(name));
+    text += (c > 1 ? "," : "") + csv_escape(trimmed(name));
   }
   text += '\n';
   for (long r = 1; r <= n_rows; ++r) {
@@ -119,7 +115,7 @@ std::vector<astro::Target> read_catalog_fits(const std::filesystem::path& path) 
         char* p = buf.data();
         int anynul = 0;
         fits_read_col(raw, TSTRING, c, r, 1, 1, const_cast<char*>(""), &p, &anynul, &status);
-        cell = trim(std::string(p));
+        cell = trimmed(std::string(p));
       } else {
         double value = NAN, nul = NAN;
         int anynul = 0;

@@ -74,6 +74,8 @@ std::size_t invalid_utf8_at(std::string_view s) {
   return std::string_view::npos;
 }
 
+std::string trimmed(std::string_view text) { return std::string(trim(text)); }
+
 std::optional<double> parse_number(std::string_view text) {
   text = trim(text);
   if (!text.empty() && text.front() == '+') text.remove_prefix(1);

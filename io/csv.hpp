@@ -55,6 +55,9 @@ std::string read_file_text(const std::filesystem::path& path);
 // Index of the first byte of `text` that is not valid UTF-8, or npos (shared with the INI reader).
 std::size_t invalid_utf8_at(std::string_view text);
 
+// `text` without leading blanks (space, tab) and trailing blanks (space, tab, carriage return).
+std::string trimmed(std::string_view text);
+
 // Parse a finite double from the whole of `text` (surrounding spaces allowed); nullopt otherwise.
 std::optional<double> parse_number(std::string_view text);
 

@@ -8,18 +8,13 @@
 #include <string>
 
 #include "astro/errors.hpp"
+#include "io/csv.hpp"
 
 namespace siiplan::io {
 namespace {
 
 constexpr std::size_t kCard = 80, kBlock = 2880;
 constexpr long long kMaxBytes = 1LL << 50;   // beyond any real file: the header is nonsense
-
-std::string trim(const std::string& s) {
-  auto b = s.find_first_not_of(' ');
-  auto e = s.find_last_not_of(' ');
-  return b == std::string::npos ? std::string() : s.substr(b, e - b + 1);
-}
 
 // Whether `keyword` is `stem` followed by a column number 1..999.
 bool is_indexed(const std::string& keyword, const std::string& stem) {
@@ -38,7 +33,7 @@ bool must_be_text(const std::string& keyword) {
 
 // The integer value of a card ("KEY     =                  123 / comment"), if it is one.
 std::optional<long long> integer_value(const std::string& value) {
-  std::string v = trim(value.substr(0, value.find('/')));
+  std::string v = trimmed(value.substr(0, value.find('/')));
   if (v.empty() || v.size() > 18) return std::nullopt;
   std::size_t i = (v[0] == '-' || v[0] == '+') ? 1 : 0;
   if (i == v.size()) return std::nullopt;
@@ -64,14 +59,14 @@ void check_fits_headers(const std::filesystem::path& path) {
       if (!in.read(card.data(), kCard)) return;   // EOF inside a header: cfitsio reports it
       ++n;
       const std::string text(card.data(), kCard);
-      if (trim(text.substr(0, 8)) == "END") break;
+      if (trimmed(text.substr(0, 8)) == "END") break;
       // As cfitsio takes them: the keyword ends at the 8th column or at an earlier '='; the value follows
       // the first '=' wherever it stands (a non-standard card is judged as cfitsio might read it).
       const std::size_t eq = text.find('=');
       if (eq == std::string::npos) continue;
-      const std::string keyword = trim(text.substr(0, std::min<std::size_t>(eq, 8)));
+      const std::string keyword = trimmed(text.substr(0, std::min<std::size_t>(eq, 8)));
       const std::string value = text.substr(eq + 1);
-      if (must_be_text(keyword) && trim(value).rfind('\'', 0) != 0)
+      if (must_be_text(keyword) && trimmed(value).rfind('\'', 0) != 0)
         throw InputError(file + ": HDU " + std::to_string(hdu) + ", header card " + std::to_string(n),
                          "the value of " + keyword + " is not a quoted character string",
                          "such a file is not valid FITS, see the FITS standard 4.0 §7.3.2; write it again with a FITS library");

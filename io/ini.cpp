@@ -7,14 +7,6 @@
 
 namespace siiplan::io {
 
-namespace {
-std::string trim(const std::string& s) {
-  auto b = s.find_first_not_of(" \t\r");
-  auto e = s.find_last_not_of(" \t\r");
-  return b == std::string::npos ? std::string() : s.substr(b, e - b + 1);
-}
-}  // namespace
-
 IniFile IniFile::read(const std::filesystem::path& path) { return parse(read_file_text(path), path.string()); }
 
 IniFile IniFile::parse(const std::string& text, const std::string& source) {
@@ -36,12 +28,12 @@ IniFile IniFile::parse(const std::string& text, const std::string& source) {
         line.resize(p);
         break;
       }
-    std::string t = trim(line);
+    std::string t = trimmed(line);
     if (t.empty()) continue;
     if (t.front() == '[') {
       if (t.back() != ']')
         throw InputError(at, "section header '" + t + "' is not closed", "write it as [name]");
-      section = trim(t.substr(1, t.size() - 2));
+      section = trimmed(t.substr(1, t.size() - 2));
       ini.sections_.insert(section);
       continue;
     }
@@ -49,12 +41,12 @@ IniFile IniFile::parse(const std::string& text, const std::string& source) {
     if (eq == std::string::npos)
       throw InputError(at, "line '" + t + "' is not 'key = value'",
                        "write one 'key = value' per line, or comment the line out with '#'");
-    std::string name = trim(t.substr(0, eq));
+    std::string name = trimmed(t.substr(0, eq));
     if (name.empty()) throw InputError(at, "line '" + t + "' has no key before '='", "write it as 'key = value'");
     std::string key = (section.empty() ? "" : section + ".") + name;
     if (ini.values_.count(key))
       throw InputError(at, "key '" + key + "' is given twice", "keep one of the two lines");
-    ini.values_[key] = {trim(t.substr(eq + 1)), n};
+    ini.values_[key] = {trimmed(t.substr(eq + 1)), n};
   }
   if (ini.values_.empty() && ini.sections_.empty())
     throw InputError(source, "the file is empty", "see the README for the keys it needs");
