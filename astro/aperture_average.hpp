@@ -13,7 +13,8 @@
 // kink of K) and sized to ~1 radian of model phase; the trapezoidal rule in phi (spectrally accurate for
 // a periodic integrand) with enough points for the model's variation around each circle. For a radially
 // symmetric model at B0 = 0 the phi integral is 2 pi |V(s)|^2 and the s integral alone is done.
-// Accuracy ~1e-9 (tests/astro/aperture_average_test.cpp).
+// Accuracy: a few 1e-9 absolute (against an independent scipy quadrature in
+// tests/astro/instrument_response_test.cpp; the kernel's (R1+R2-s)^(3/2) end point limits the panels).
 //
 // Small-mirror limit (second moment of K, <s^2> = (D1^2 + D2^2)/8, with |V|^2 ~ 1 - x^2/4 for a UD):
 //   <|V|^2>(0) ~ 1 - (pi theta/lambda)^2 (D1^2 + D2^2)/32,  i.e. 1 - (pi theta D/(4 lambda))^2 for D1 = D2;
@@ -21,6 +22,8 @@
 //   formula gives 0.704 while the full average is 0.757: use the quadrature for large stars.
 // Tested in: tests/astro/aperture_average_test.cpp
 #pragma once
+
+#include <span>
 
 #include "astro/models.hpp"
 
@@ -33,6 +36,10 @@ namespace siiplan::astro {
 //          more than ~2e7 model evaluations (x = pi scale (D1+D2)/(2 lambda) beyond ~1e5 at B0 = 0 for
 //          radially symmetric models, ~300 otherwise).
 double aperture_averaged_vis2(const Model& model, double u_m, double v_m, double lambda_m, double d1_m, double d2_m);
+// The same and its gradient with respect to the model parameters (grad.size() == params().size()), by the
+// same quadrature applied to Model::vis2_and_gradient.
+double aperture_averaged_vis2_and_gradient(const Model& model, double u_m, double v_m, double lambda_m, double d1_m,
+                                           double d2_m, std::span<double> grad);
 
 // First-order estimate of the zero-baseline loss 1 - <|V|^2>(0) for a uniform disk of diameter theta_rad:
 // (pi theta/lambda)^2 (D1^2 + D2^2)/32. Valid while it is << 1.

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <functional>
 #include <vector>
 
 #include "astro/errors.hpp"
@@ -37,15 +38,21 @@ LambdaRange band_of(const Filter& f) {
   return b;
 }
 
-// Weighted average of g(lambda) (a vector-valued function writing n values) over the band.
-template <class G>
-void average(const Model& model, double u_m, double v_m, const LambdaRange& b, std::size_t n, G&& g, std::vector<double>& out) {
+}  // namespace
+
+void band_average_values(const Model& model, double u_m, double v_m, const Filter& filter, std::size_t n,
+                         const std::function<void(double, std::span<double>)>& g, std::span<double> out) {
+  const LambdaRange b = band_of(filter);
+  if (filter.bandwidth_m == 0) {
+    g(filter.lambda_m, out);
+    return;
+  }
   const double phase_span = kPi * angular_scale_rad(model) * std::hypot(u_m, v_m) * (1.0 / b.lo - 1.0 / b.hi);
   // At least 8 panels (one per 2 sigma) under a Gaussian weight; 16-point rules on each.
   const int panels = std::max(b.sigma > 0 ? 8 : 1, 1 + int(std::min(phase_span, 1e5)));
   const GaussRule rule = gauss_legendre(16);
   std::vector<double> val(n);
-  out.assign(n, 0.0);
+  std::fill(out.begin(), out.begin() + std::ptrdiff_t(n), 0.0);
   double wsum = 0;
   const double h = (b.hi - b.lo) / panels;
   for (int p = 0; p < panels; ++p) {
@@ -62,30 +69,23 @@ void average(const Model& model, double u_m, double v_m, const LambdaRange& b, s
       wsum += w;
     }
   }
-  for (auto& o : out) o /= wsum;
+  for (std::size_t k = 0; k < n; ++k) out[k] /= wsum;
 }
 
-}  // namespace
-
 double band_averaged_vis2(const Model& model, double u_m, double v_m, const Filter& filter) {
-  const LambdaRange b = band_of(filter);
-  if (filter.bandwidth_m == 0) return model.vis2(u_m / filter.lambda_m, v_m / filter.lambda_m);
-  std::vector<double> out;
-  average(model, u_m, v_m, b, 1, [&](double l, std::vector<double>& v) { v[0] = model.vis2(u_m / l, v_m / l); }, out);
-  return out[0];
+  double out = 0;
+  band_average_values(model, u_m, v_m, filter, 1, [&](double l, std::span<double> v) { v[0] = model.vis2(u_m / l, v_m / l); },
+                      std::span<double>(&out, 1));
+  return out;
 }
 
 double band_averaged_vis2_and_gradient(const Model& model, double u_m, double v_m, const Filter& filter,
                                        std::span<double> grad) {
-  const LambdaRange b = band_of(filter);
-  if (filter.bandwidth_m == 0) return model.vis2_and_gradient(u_m / filter.lambda_m, v_m / filter.lambda_m, grad);
   const std::size_t np = model.params().size();
-  std::vector<double> out;
-  average(model, u_m, v_m, b, np + 1,
-          [&](double l, std::vector<double>& v) {
-            v[0] = model.vis2_and_gradient(u_m / l, v_m / l, std::span<double>(v.data() + 1, np));
-          },
-          out);
+  std::vector<double> out(np + 1);
+  band_average_values(model, u_m, v_m, filter, np + 1,
+                      [&](double l, std::span<double> v) { v[0] = model.vis2_and_gradient(u_m / l, v_m / l, v.subspan(1, np)); },
+                      out);
   std::copy(out.begin() + 1, out.end(), grad.begin());
   return out[0];
 }

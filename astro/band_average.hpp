@@ -20,6 +20,7 @@
 // Tested in: tests/astro/band_average_test.cpp
 #pragma once
 
+#include <functional>
 #include <span>
 
 #include "astro/models.hpp"
@@ -42,5 +43,11 @@ double band_averaged_vis2(const Model& model, double u_m, double v_m, const Filt
 // The same and its gradient with respect to the model parameters (grad.size() == params().size()).
 double band_averaged_vis2_and_gradient(const Model& model, double u_m, double v_m, const Filter& filter,
                                        std::span<double> grad);
+
+// The band quadrature above for any n values that depend on wavelength: g(lambda_m, out) writes them at one
+// wavelength; out (size >= n) receives their T^2-weighted averages. The panels are sized from the model
+// and the baseline (u_m, v_m) as above. Bandwidth 0: g at the central wavelength.
+void band_average_values(const Model& model, double u_m, double v_m, const Filter& filter, std::size_t n,
+                         const std::function<void(double, std::span<double>)>& g, std::span<double> out);
 
 }  // namespace siiplan::astro
