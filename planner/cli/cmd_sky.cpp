@@ -84,7 +84,7 @@ int run_sky(const po::variables_map& vm) {
   io::PlotSeries target_curve{target ? target->name : "", {}, {}, {}, io::PlotSeries::Style::Line, "#1f5fa8", false};
   JulianDate day0{span.start_utc.jd1, 0.0};
   bool dubious = false;
-  for (auto t : sample_times(night.window.start_utc, night.window.end_utc, span.step_s)) {
+  for (auto t : sample_times(night.window.start_utc, night.window.end_utc, span.step_s, SampleGrid::RoundTimes)) {
     Epoch e(site, t);
     dubious = dubious || e.dubious_year();
     Apparent sun = e.sun(), moon = e.moon();

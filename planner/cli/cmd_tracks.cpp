@@ -72,7 +72,7 @@ int run_tracks(const po::variables_map& vm) {
   std::vector<Step> steps;
   bool dubious = false;
   if (seconds_between(from, to) > 0)
-    for (auto t : sample_times(from, to, span.step_s)) {
+    for (auto t : sample_times(from, to, span.step_s, sample_grid(span))) {
       Epoch e(site, t);
       dubious = dubious || e.dubious_year();
       steps.push_back({t, e.star(target.position)});

@@ -123,15 +123,19 @@ TimeSpan load_time_span(const po::variables_map& vm, const astro::Site& site) {
   return span;
 }
 
-std::vector<astro::JulianDate> sample_times(astro::JulianDate start_utc, astro::JulianDate end_utc, double step_s) {
+std::vector<astro::JulianDate> sample_times(astro::JulianDate start_utc, astro::JulianDate end_utc, double step_s,
+                                            SampleGrid grid) {
   std::vector<astro::JulianDate> out;
-  astro::JulianDate day0{start_utc.jd1, 0.0};   // jd1 is a whole day + 0.5 (0h UTC) for our instants
-  double from = astro::seconds_between(day0, start_utc), to = astro::seconds_between(day0, end_utc);
+  // jd1 is a whole day + 0.5 (0h UTC) for our instants
+  const astro::JulianDate origin = grid == SampleGrid::RoundTimes ? astro::JulianDate{start_utc.jd1, 0.0} : start_utc;
+  double from = astro::seconds_between(origin, start_utc), to = astro::seconds_between(origin, end_utc);
   for (double k = std::ceil(from / step_s - 1e-9); k * step_s <= to + 1e-6; ++k)
-    out.push_back(astro::add_seconds(day0, k * step_s));
+    out.push_back(astro::add_seconds(origin, k * step_s));
   if (out.empty()) out.push_back(start_utc);
   return out;
 }
+
+SampleGrid sample_grid(const TimeSpan& span) { return span.night ? SampleGrid::RoundTimes : SampleGrid::FromStart; }
 
 std::string describe_no_dark(const astro::NightSummary& night) {
   std::string low = io::format_number(night.sun_min_alt_rad * astro::kRadToDeg, 3);

@@ -53,9 +53,16 @@ void add_time_options(po::options_description& desc, double default_step_min);
 // the command then narrows (e.g. to sunset..sunrise); with --start/--end it is exactly that span.
 // InputError naming the option for a malformed date, end <= start, a span over 31 days, or a step <= 0.
 TimeSpan load_time_span(const po::variables_map& vm, const astro::Site& site);
-// The instants on a regular grid of `step_s` counted from 0h UTC (so steps fall on round times) that lie
-// in [start, end]; start itself when no grid instant does.
-std::vector<astro::JulianDate> sample_times(astro::JulianDate start_utc, astro::JulianDate end_utc, double step_s);
+// How sample_times places its instants.
+enum class SampleGrid {
+  FromStart,   // start, start + step, ... (a span the user gave with --start)
+  RoundTimes,  // a grid of `step` counted from 0h UTC, so steps fall on round clock times (--night)
+};
+// The instants of the grid that lie in [start, end]; start itself when no grid instant does.
+std::vector<astro::JulianDate> sample_times(astro::JulianDate start_utc, astro::JulianDate end_utc, double step_s,
+                                            SampleGrid grid);
+// The grid a time span asks for: FromStart for --start/--end, RoundTimes for --night.
+SampleGrid sample_grid(const TimeSpan& span);
 
 // Why a night has no dark time, for messages: "the Sun stays above -18 deg (lowest -12.4 deg; midnight
 // sun)" and the like.

@@ -57,3 +57,8 @@ siiplan_cli_test(NAME tracks_no_target EXIT 2 ARGS tracks --site ${GEO_SITE} --a
                  STDERR "--ra: no target given")
 siiplan_cli_test(NAME sky_missing_site EXIT 2 ARGS sky --site ${DATA}/geometry/no-such-site.ini --night 2026-01-15
                  -o ${OUT}/geo_bad6.txt STDERR "no-such-site.ini" ABSENT ${OUT}/geo_bad6.txt)
+# --start is the first sample, whatever the step (it used to snap to a grid counted from 0h UTC: 00:45 for 00:10
+# with 45-minute steps); --night keeps steps on round clock times.
+siiplan_cli_test(NAME tracks_start_is_first_sample EXIT 0 ARGS tracks --site ${GEO_SITE} --array ${DEMO}/array-small.csv
+                 ${GEO_STAR} --start 2026-01-16T00:10 --end 2026-01-16T02:00 --step-min 45 --format csv
+                 STDOUT "^time_utc,[^\n]*\n2026-01-16T00:10:00Z,[^\n]*\n2026-01-16T00:10:00Z,[^\n]*\n2026-01-16T00:10:00Z,[^\n]*\n2026-01-16T00:55:00Z,")
